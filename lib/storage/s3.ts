@@ -195,8 +195,9 @@ export interface PresignPutOptions {
   /** 1 s to 7 days. */
   expiresInSeconds: number;
   /**
-   * Exact body size in bytes. When given it is signed into the URL, so S3 rejects a body of any other size.
-   * A presigned PUT cannot carry a range, so without it check the size with headObject after the upload.
+   * Exact body size in bytes. When given it is signed into the URL as Content-Length, so real S3 rejects a
+   * body of any other size (the fake S3 does not check signatures). A presigned PUT cannot carry a range,
+   * so in every case confirm the stored size with headObject after the upload.
    */
   sizeBytes?: number;
   /** Ceiling for sizeBytes; defaults to UPLOAD_LIMIT_BYTES. */
