@@ -4,7 +4,9 @@ const nextConfig = {
   serverExternalPackages: ["knex", "piscina", "pg-boss", "s3rver", "smtp-server", "mailparser"],
   poweredByHeader: false,
   reactStrictMode: true,
-  typescript: { tsconfigPath: "tsconfig.json" },
+  // Types are checked once for the whole tree (app, lib, scripts, tests) by `tsc --noEmit` in `npm test`,
+  // so the build does not check them a second time.
+  typescript: { ignoreBuildErrors: true },
 };
 
 export default nextConfig;

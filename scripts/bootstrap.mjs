@@ -224,6 +224,10 @@ async function main() {
     return;
   }
 
+  // One type check of the whole tree (the build skips it): app, lib, scripts and tests together.
+  log("type-checking");
+  run(process.execPath, ["node_modules/typescript/bin/tsc", "--noEmit", "-p", "tsconfig.json"]);
+
   mkdirSync(path.join(root, "test-artifacts"), { recursive: true });
   const report = path.join(root, "test-artifacts", "vitest.json");
   rmSync(report, { force: true });
