@@ -233,7 +233,7 @@ async function main() {
   rmSync(report, { force: true });
   const vitest = spawnSync(
     process.execPath,
-    ["node_modules/vitest/vitest.mjs", "run", "--reporter=default", "--reporter=json", `--outputFile.json=${report}`],
+    ["node_modules/vitest/vitest.mjs", "run", "--reporter=default", "--reporter=json", `--outputFile.json=${report}`, ...process.argv.slice(3)],
     { cwd: root, stdio: "inherit", env: { ...env, NODE_ENV: "test", NO_COLOR: "1", TANKBOOK_TEST_STACK: "1" } },
   );
   let code = vitest.status ?? 1;
