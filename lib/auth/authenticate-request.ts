@@ -1,0 +1,33 @@
+import { verifyRequestOrigin } from "lucia";
+import { authenticateApiToken } from "./api-tokens";
+import type { CurrentUser } from "./current-user-type";
+import { lucia } from "./lucia";
+import { validateSessionId } from "./session-user";
+
+/**
+ * Whether a cookie-authenticated request may change state: safe methods always, others only when their
+ * Origin names this host (route handlers get no CSRF protection from Next, unlike form actions).
+ */
+export function originAllowed(request: Request): boolean {
+  if (request.method === "GET" || request.method === "HEAD" || request.method === "OPTIONS") return true;
+  const origin = request.headers.get("origin");
+  const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host");
+  return Boolean(origin && host && verifyRequestOrigin(origin, [host]));
+}
+
+/**
+ * Who a route handler request acts for: `Authorization: Bearer <token>` (an API token, acting with its
+ * owner's role) or else the session cookie. A Bearer header is never combined with the cookie.
+ * @returns the user, or null for a missing, unknown, revoked or expired credential, a disabled user, or a
+ *          cookie-authenticated state-changing request from another origin
+ */
+export async function authenticateRequest(request: Request): Promise<CurrentUser | null> {
+  const authorization = request.headers.get("authorization");
+  if (authorization) {
+    const token = lucia().readBearerToken(authorization);
+    return token ? authenticateApiToken(token) : null;
+  }
+  const sessionId = lucia().readSessionCookie(request.headers.get("cookie") ?? "");
+  if (!sessionId || !originAllowed(request)) return null;
+  return (await validateSessionId(sessionId)).user;
+}
