@@ -1,0 +1,187 @@
+/**
+ * The next tweak: which single standard-value part change brings the predicted frequency closest to a target,
+ * taking the capacitance implied by a measurement as real.
+ */
+
+import { assertValidDesign, nominalValues, parallelCapacitanceF, TOPOLOGY_PARTS, type OscillatorDesign } from "./design";
+import { analyseDrift } from "./drift";
+import { preferredValuesBetween, type ESeriesName } from "./e-series";
+import { frequencyFromValues } from "./topologies";
+import { statisticalBand, worstCaseBand, type FrequencyBand, type StatisticalOptions } from "./tolerance";
+
+/** Candidates span three decades either side of the fitted value; a bigger jump is a redesign, not a tweak. */
+const SEARCH_DECADES = 3;
+
+function frequencyWith(design: OscillatorDesign, ref: string, valueSi: number): number | null {
+  try {
+    return frequencyFromValues(
+      design.topology,
+      { ...nominalValues(design), [ref]: valueSi },
+      parallelCapacitanceF(design),
+      design.windings,
+    );
+  } catch {
+    // A negative calibration can leave C_eff at or below 0 for small candidates: no such build exists.
+    return null;
+  }
+}
+
+/** Parts that can be swapped for a standard value: every L and C, never the coupling M or k. */
+export function retunableParts(design: OscillatorDesign): string[] {
+  return Object.keys(design.parts).filter((ref) => {
+    const role = TOPOLOGY_PARTS[design.topology][ref];
+    return role !== undefined && role.kind !== "coupling" && ref !== "M";
+  });
+}
+
+/**
+ * The exact value of one part that makes the predicted f0 equal the target (bisection in log space; f0 falls as
+ * any L or C rises).
+ *
+ * @param design - validated first; its extra and calibration capacitance are kept.
+ * @param ref - the part to solve for (an L or C).
+ * @param targetHz - wanted f0, Hz, above 0.
+ * @returns the value in SI units, or null when no value within six decades of the current one reaches the target
+ *   (a Clapp's C3 cannot push f0 below the Colpitts limit of C1 and C2, for example).
+ * @throws RangeError when the design is invalid, `ref` is not a retunable part, or `targetHz` is not above 0.
+ */
+export function solvePartValue(design: OscillatorDesign, ref: string, targetHz: number): number | null {
+  assertValidDesign(design);
+  if (!retunableParts(design).includes(ref)) {
+    throw new RangeError(`part ${ref} cannot be retuned in this ${design.topology} design (choose one of ${retunableParts(design).join(", ")})`);
+  }
+  if (!(Number.isFinite(targetHz) && targetHz > 0)) throw new RangeError(`target frequency must be above 0 Hz; got ${targetHz}`);
+  const current = design.parts[ref].valueSi;
+  let lo = Math.log(current) - 6 * Math.LN10;
+  let hi = Math.log(current) + 6 * Math.LN10;
+  const fLo = frequencyWith(design, ref, Math.exp(lo));
+  const fHi = frequencyWith(design, ref, Math.exp(hi));
+  if (fHi === null || fHi > targetHz || (fLo !== null && fLo < targetHz)) return null;
+  for (let i = 0; i < 200 && hi - lo > 1e-13; i++) {
+    const mid = (lo + hi) / 2;
+    const f = frequencyWith(design, ref, Math.exp(mid));
+    if (f === null || f > targetHz) lo = mid;
+    else hi = mid;
+  }
+  return Math.exp((lo + hi) / 2);
+}
+
+export interface RetuneOptions {
+  /** Wanted frequency, Hz. */
+  targetHz: number;
+  /** Measured frequency, Hz; when given, the capacitance it implies is taken as real. */
+  measuredHz?: number;
+  /** Series the new part comes from; default E12. */
+  series?: ESeriesName;
+  /** Only change this part; default: the best over every capacitor. */
+  part?: string;
+  /** Also consider the inductors when no part is named; default false, a capacitor is the usual bench swap. */
+  includeInductors?: boolean;
+  /** Options for the statistical band of the result. */
+  statistical?: StatisticalOptions;
+}
+
+export interface RetuneSuggestion {
+  part: string;
+  unit: "F" | "H";
+  fromSi: number;
+  toSi: number;
+  /** Same as fromSi/toSi when the part is a capacitor (absent for an inductor). */
+  fromF?: number;
+  toF?: number;
+  /** Same as fromSi/toSi when the part is an inductor (absent for a capacitor). */
+  fromH?: number;
+  toH?: number;
+  /** The exact value that would hit the target, or null if none can. */
+  idealSi: number | null;
+  /** False when the current value is already the closest choice. */
+  changed: boolean;
+  targetHz: number;
+  /** Predicted f0 after the change, calibration included. */
+  predictedHz: number;
+  errorHz: number;
+  errorPercent: number;
+  series: ESeriesName;
+  /** The signed capacitance taken from the measurement, F (0 without one). */
+  calibrationCapacitanceF: number;
+  worstCase: FrequencyBand;
+  statistical: FrequencyBand;
+  /** The design after the change, calibration included, ready for more calculations. */
+  design: OscillatorDesign;
+}
+
+/**
+ * Finds the single standard-value change that brings the predicted f0 closest to a target.
+ *
+ * @param design - the design as built; validated first.
+ * @param options - target, optional measurement, series and part.
+ * @returns the change, the resulting predicted f0 (Hz) and its worst-case and Monte Carlo bands (the new part keeps
+ *   the old part's tolerance).
+ * @throws RangeError when the design is invalid, the target or measurement is not above 0, or the part named
+ *   cannot be retuned.
+ */
+export function suggestRetune(design: OscillatorDesign, options: RetuneOptions): RetuneSuggestion {
+  assertValidDesign(design);
+  const { targetHz } = options;
+  const series = options.series ?? "E12";
+  if (!(Number.isFinite(targetHz) && targetHz > 0)) throw new RangeError(`target frequency must be above 0 Hz; got ${targetHz}`);
+  const candidates = retunableParts(design);
+  if (options.part !== undefined && !candidates.includes(options.part)) {
+    throw new RangeError(`part ${options.part} cannot be retuned in this ${design.topology} design (choose one of ${candidates.join(", ")})`);
+  }
+  const capacitors = candidates.filter((ref) => TOPOLOGY_PARTS[design.topology][ref].kind === "capacitance");
+  const refs = options.part !== undefined ? [options.part] : options.includeInductors ? candidates : capacitors;
+
+  const calibrationCapacitanceF =
+    options.measuredHz === undefined ? 0 : analyseDrift(design, options.measuredHz).impliedExtraCapacitanceF;
+  const calibrated: OscillatorDesign = {
+    ...design,
+    calibrationCapacitanceF: (design.calibrationCapacitanceF ?? 0) + calibrationCapacitanceF,
+  };
+
+  let best: { ref: string; valueSi: number; hz: number; error: number; step: number } | null = null;
+  for (const ref of refs) {
+    const current = design.parts[ref].valueSi;
+    const span = 10 ** SEARCH_DECADES;
+    const values = [current, ...preferredValuesBetween(current / span, current * span, series)];
+    for (const valueSi of values) {
+      const hz = frequencyWith(calibrated, ref, valueSi);
+      if (hz === null) continue;
+      const error = Math.abs(hz - targetHz);
+      const step = Math.abs(Math.log(valueSi / current));
+      // Ties go to the smaller change, so the current value wins when nothing beats it.
+      if (best === null || error < best.error * (1 - 1e-12) || (Math.abs(error - best.error) <= 1e-12 * best.error && step < best.step)) {
+        best = { ref, valueSi, hz, error, step };
+      }
+    }
+  }
+  if (best === null) throw new RangeError("no standard value gives a realisable tank (the calibration leaves no capacitance)");
+
+  const role = TOPOLOGY_PARTS[design.topology][best.ref];
+  const fromSi = design.parts[best.ref].valueSi;
+  const retuned: OscillatorDesign = {
+    ...calibrated,
+    parts: { ...calibrated.parts, [best.ref]: { ...calibrated.parts[best.ref], valueSi: best.valueSi } },
+  };
+  const worst = worstCaseBand(retuned);
+  const stat = statisticalBand(retuned, options.statistical);
+  const unit = role.kind === "capacitance" ? "F" : "H";
+  return {
+    part: best.ref,
+    unit,
+    fromSi,
+    toSi: best.valueSi,
+    ...(unit === "F" ? { fromF: fromSi, toF: best.valueSi } : { fromH: fromSi, toH: best.valueSi }),
+    idealSi: solvePartValue(calibrated, best.ref, targetHz),
+    changed: best.valueSi !== fromSi,
+    targetHz,
+    predictedHz: best.hz,
+    errorHz: best.hz - targetHz,
+    errorPercent: ((best.hz - targetHz) / targetHz) * 100,
+    series,
+    calibrationCapacitanceF,
+    worstCase: { minHz: worst.minHz, maxHz: worst.maxHz },
+    statistical: { minHz: stat.minHz, maxHz: stat.maxHz },
+    design: retuned,
+  };
+}
