@@ -66,8 +66,10 @@ function newestMtime(dir) {
   return newest;
 }
 
+const distDir = testing ? ".next-test" : ".next";
+
 function needsBuild() {
-  const buildId = path.join(root, ".next", "BUILD_ID");
+  const buildId = path.join(root, distDir, "BUILD_ID");
   if (!existsSync(buildId)) return true;
   const built = statSync(buildId).mtimeMs;
   const sources = ["app", "components", "lib", "db", "fonts", "public"].map((d) => newestMtime(path.join(root, d)));
@@ -177,6 +179,9 @@ async function main() {
     SMTP_PORT: String(stack.smtpPort),
     FAKE_SMTP_API_URL: `http://127.0.0.1:${stack.smtpApiPort}`,
     NEXT_TELEMETRY_DISABLED: "1",
+    NEXT_DIST_DIR: distDir,
+    // The AWS SDK warns on every process start that its 2027 releases will need Node 22; our versions are pinned.
+    NODE_OPTIONS: [process.env.NODE_OPTIONS, "--disable-warning=NodeVersionSupportWarning"].filter(Boolean).join(" "),
     TANKBOOK_PG_BIN: pgBin,
     TANKBOOK_PG_DATA: dataDir,
     TANKBOOK_PG_PORT: String(stack.pgPort),

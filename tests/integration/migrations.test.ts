@@ -1,9 +1,11 @@
 import knex, { type Knex } from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import config from "../../knexfile";
+import { migrationSource } from "../../db/migration-source";
 
 // Runs against a scratch database on the test cluster so the shared test database keeps its schema.
 const scratchDb = "tankbook_migrations_check";
+const source = { migrationSource: migrationSource() };
 let admin: Knex;
 let scratch: Knex;
 
@@ -31,21 +33,21 @@ async function userTables(k: Knex): Promise<string[]> {
 
 describe("migrations", () => {
   it("apply to an empty database", async () => {
-    const [, applied] = await scratch.migrate.latest();
+    const [, applied] = await scratch.migrate.latest(source);
     expect(applied.length).toBeGreaterThan(0);
     expect(await userTables(scratch)).toContain("audit_events");
-    const [done, pending] = await scratch.migrate.list();
+    const [done, pending] = await scratch.migrate.list(source);
     expect(pending).toHaveLength(0);
     expect(done.length).toBe(applied.length);
   });
 
   it("roll back cleanly, leaving no table behind", async () => {
-    await scratch.migrate.rollback(undefined, true);
+    await scratch.migrate.rollback(source, true);
     expect(await userTables(scratch)).toEqual([]);
   });
 
   it("apply again after a full rollback", async () => {
-    const [, applied] = await scratch.migrate.latest();
+    const [, applied] = await scratch.migrate.latest(source);
     expect(applied.length).toBeGreaterThan(0);
   });
 });
