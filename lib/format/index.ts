@@ -1,3 +1,4 @@
 export * from "./numbers";
 export * from "./bytes";
 export * from "./dates";
+export * from "./axis";

@@ -1,0 +1,46 @@
+/**
+ * Chart axes in engineering units: one SI prefix for the whole axis (so ticks read 0, 50, 100 µs, not 0, 50 µs,
+ * 0.1 ms), chosen from the largest magnitude on it.
+ */
+import { formatEngineering } from "@/lib/oscillator/units";
+import { typographicMinus } from "./numbers";
+
+export interface AxisUnit {
+  /** Multiply SI values by this to get the axis's numbers. */
+  factor: number;
+  /** The prefixed unit for the axis label, e.g. "µs", "kHz", "mV". */
+  unit: string;
+}
+
+/**
+ * The prefix for an axis whose values reach `maxAbs`.
+ *
+ * @param maxAbs - largest |value| on the axis, SI units; 0 or non-finite gives no prefix.
+ * @param unit - the base unit ("s", "Hz", "V").
+ * @returns e.g. 2.3e-3, "V" → { factor: 1000, unit: "mV" }; 412e3, "Hz" → { factor: 0.001, unit: "kHz" }.
+ */
+export function axisUnit(maxAbs: number, unit: string): AxisUnit {
+  if (!Number.isFinite(maxAbs) || maxAbs <= 0 || unit === "") return { factor: 1, unit };
+  const exponent3 = Math.floor(Math.floor(Math.log10(maxAbs)) / 3) * 3;
+  const text = formatEngineering(Number(`1e${exponent3}`), unit, 1);
+  // Outside the prefix range the formatter falls back to exponent form: keep the base unit then.
+  if (text.includes("e")) return { factor: 1, unit };
+  return { factor: Number(`1e${-exponent3}`), unit: text.split(" ")[1] ?? unit };
+}
+
+/**
+ * Tick labels for an axis in the given prefix, with just enough decimals for the tick spacing.
+ *
+ * @param splits - tick positions, SI units.
+ * @param incrementSi - spacing between ticks, SI units.
+ * @param axis - from {@link axisUnit}.
+ * @returns one label per split, with U+2212 for negatives.
+ */
+export function axisTickLabels(splits: number[], incrementSi: number, axis: AxisUnit): string[] {
+  const step = Math.abs(incrementSi * axis.factor);
+  const decimals = step > 0 && Number.isFinite(step) ? Math.min(6, Math.max(0, -Math.floor(Math.log10(step) + 1e-9))) : 0;
+  return splits.map((v) => {
+    const text = (v * axis.factor).toFixed(decimals);
+    return typographicMinus(/^-0(\.0+)?$/.test(text) ? text.slice(1) : text);
+  });
+}

@@ -1,0 +1,29 @@
+import { describe, expect, it } from "vitest";
+import { axisTickLabels, axisUnit } from "@/lib/format/axis";
+import { MINUS } from "@/lib/format/numbers";
+
+describe("axisUnit", () => {
+  it("millivolts_for_small_voltages", () => {
+    expect(axisUnit(2.3e-3, "V")).toEqual({ factor: 1000, unit: "mV" });
+  });
+  it("kilohertz_for_a_spectrum", () => {
+    expect(axisUnit(412e3, "Hz")).toEqual({ factor: 0.001, unit: "kHz" });
+  });
+  it("microseconds_for_a_short_record", () => {
+    const a = axisUnit(200e-6, "s");
+    expect(a.unit).toBe("µs");
+    expect(a.factor).toBeCloseTo(1e6, 6);
+  });
+  it("zero_range_keeps_the_base_unit", () => {
+    expect(axisUnit(0, "V")).toEqual({ factor: 1, unit: "V" });
+  });
+});
+
+describe("axisTickLabels", () => {
+  it("whole_numbers_when_ticks_are_whole", () => {
+    expect(axisTickLabels([0, 50e-6, 100e-6], 50e-6, { factor: 1e6, unit: "µs" })).toEqual(["0", "50", "100"]);
+  });
+  it("decimals_follow_the_step_and_minus_is_u2212", () => {
+    expect(axisTickLabels([-0.5, 0, 0.5], 0.5, { factor: 1, unit: "V" })).toEqual([`${MINUS}0.5`, "0.0", "0.5"]);
+  });
+});
