@@ -86,12 +86,12 @@ export interface RetuneSuggestion {
   unit: "F" | "H";
   fromSi: number;
   toSi: number;
-  /** Same as fromSi/toSi when the part is a capacitor (absent for an inductor). */
-  fromF?: number;
-  toF?: number;
-  /** Same as fromSi/toSi when the part is an inductor (absent for a capacitor). */
-  fromH?: number;
-  toH?: number;
+  /** Same as fromSi/toSi when the part is a capacitor; null for an inductor. */
+  fromF: number | null;
+  toF: number | null;
+  /** Same as fromSi/toSi when the part is an inductor; null for a capacitor. */
+  fromH: number | null;
+  toH: number | null;
   /** The exact value that would hit the target, or null if none can. */
   idealSi: number | null;
   /** False when the current value is already the closest choice. */
@@ -171,7 +171,10 @@ export function suggestRetune(design: OscillatorDesign, options: RetuneOptions):
     unit,
     fromSi,
     toSi: best.valueSi,
-    ...(unit === "F" ? { fromF: fromSi, toF: best.valueSi } : { fromH: fromSi, toH: best.valueSi }),
+    fromF: unit === "F" ? fromSi : null,
+    toF: unit === "F" ? best.valueSi : null,
+    fromH: unit === "H" ? fromSi : null,
+    toH: unit === "H" ? best.valueSi : null,
     idealSi: solvePartValue(calibrated, best.ref, targetHz),
     changed: best.valueSi !== fromSi,
     targetHz,

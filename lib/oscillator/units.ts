@@ -112,11 +112,11 @@ function checkUnits(original: string, found: QuantityUnit | undefined, expected:
 
 function checkPlausible(original: string, exponent: number, letter: string, unit: QuantityUnit | undefined): void {
   if ((unit === "F" || unit === "H") && exponent > 0) {
-    const part = unit === "F" ? "capacitor" : "inductor";
+    const part = unit === "F" ? "a capacitor" : "an inductor";
     const reason =
       letter === "K" || letter === "M"
-        ? `${letter} after a ${part} value is the tolerance letter ±${letter === "K" ? 10 : 20} %, not a multiplier`
-        : `a ${part} value with the multiplier ${letter} (10^${exponent}) is not a part value`;
+        ? `${letter} after ${part} value is the tolerance letter ±${letter === "K" ? 10 : 20} %, not a multiplier`
+        : `${part} value with the multiplier ${letter} (10^${exponent}) is not a part value`;
     throw notAValue(original, `${reason}; write the prefix, e.g. 4.7n, 4u7 or 10m`);
   }
 }
