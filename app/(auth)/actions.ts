@@ -1,0 +1,79 @@
+"use server";
+
+import { cookies } from "next/headers";
+import { redirect } from "next/navigation";
+import { getCurrentSession, setSessionCookie, clearSessionCookie } from "@/lib/auth/current-user";
+import { acceptInvitation } from "@/lib/auth/invitations";
+import { SESSION_COOKIE_NAME } from "@/lib/auth/lucia";
+import { requestPasswordReset, resetPassword } from "@/lib/auth/password-reset";
+import { requestMeta } from "@/lib/auth/request-meta";
+import { signIn, signOut, signOutEverywhere } from "@/lib/auth/sign-in";
+import { formFields, invalidState, stateFromError, type FormState } from "@/lib/auth/action-state";
+import { acceptInvitationSchema, forgotPasswordSchema, resetPasswordSchema, signInSchema } from "@/lib/validations/auth";
+
+export async function signInAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const parsed = signInSchema.safeParse(formFields(formData));
+  if (!parsed.success) return invalidState(parsed.error);
+  try {
+    const previousSessionId = (await cookies()).get(SESSION_COOKIE_NAME)?.value ?? null;
+    const { session } = await signIn({ ...parsed.data, previousSessionId }, await requestMeta());
+    await setSessionCookie(session.id);
+  } catch (err) {
+    return stateFromError(err);
+  }
+  redirect(parsed.data.next);
+}
+
+export async function forgotPasswordAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const parsed = forgotPasswordSchema.safeParse(formFields(formData));
+  if (!parsed.success) return invalidState(parsed.error);
+  try {
+    await requestPasswordReset(parsed.data.email, await requestMeta());
+  } catch (err) {
+    return stateFromError(err);
+  }
+  return {
+    ok: true,
+    message: `If ${parsed.data.email} belongs to an active account, a reset link is on its way. It works once, for one hour.`,
+  };
+}
+
+export async function resetPasswordAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const parsed = resetPasswordSchema.safeParse(formFields(formData));
+  if (!parsed.success) return invalidState(parsed.error);
+  try {
+    const { session } = await resetPassword(parsed.data, await requestMeta());
+    await setSessionCookie(session.id);
+  } catch (err) {
+    return stateFromError(err);
+  }
+  redirect("/dashboard?welcome=password-reset");
+}
+
+export async function acceptInvitationAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const parsed = acceptInvitationSchema.safeParse(formFields(formData));
+  if (!parsed.success) return invalidState(parsed.error);
+  try {
+    const { session } = await acceptInvitation(parsed.data, await requestMeta());
+    await setSessionCookie(session.id);
+  } catch (err) {
+    return stateFromError(err);
+  }
+  redirect("/dashboard?welcome=invited");
+}
+
+/** Ends this session server-side. */
+export async function signOutAction(): Promise<void> {
+  const { session, user } = await getCurrentSession();
+  if (session) await signOut(session.id, user.id, await requestMeta());
+  await clearSessionCookie();
+  redirect("/sign-in?signed-out=1");
+}
+
+/** Ends every session of the signed-in user, on every device. */
+export async function signOutEverywhereAction(): Promise<void> {
+  const { user } = await getCurrentSession();
+  if (user) await signOutEverywhere(user.id, await requestMeta());
+  await clearSessionCookie();
+  redirect("/sign-in?signed-out=everywhere");
+}
