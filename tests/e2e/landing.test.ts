@@ -16,7 +16,7 @@ describe("landing page in Chromium", () => {
     it(`renders with the shipped fonts and no horizontal scroll at ${width} px`, async () => {
       const page = await browser.newPage({ viewport: { width, height: 900 } });
       const errors = watchErrors(page);
-      await page.goto(appUrl(), { waitUntil: "networkidle" });
+      await page.goto(appUrl(), { waitUntil: "load" });
       await expect(page.getByRole("heading", { level: 1 }).textContent()).resolves.toContain("LC oscillator builds");
       const fontsLoaded = await page.evaluate(async () => {
         await document.fonts.ready;
