@@ -1,0 +1,497 @@
+"use client";
+
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useId, useRef, useState, type DragEvent } from "react";
+import { Button } from "@/components/ui/button";
+import { Field, FormMessage, Input, Select, Textarea, describedBy } from "@/components/ui/field";
+import { ProgressBar } from "@/components/ui/progress-bar";
+import { decodeCaptureStart, sniffCaptureHeader, SNIFF_BYTES, type SniffedHeader } from "@/lib/capture-sniff/sniff-header";
+import { formatBytes, formatDuration, formatRate } from "@/lib/format/bytes";
+import { formatDateTime } from "@/lib/format/dates";
+import { cn } from "@/lib/utils";
+import { putWithProgress, UploadCancelledError, type UploadHandle, type UploadProgress } from "./put-with-progress";
+import type { DuplicateRun, RegisterResult, RunRegistration, TweakChoice, UploadRequest, UploadSlotResult } from "./upload-types";
+
+export interface UploadFormProps {
+  buildId: string;
+  tweaks: TweakChoice[];
+  /** The tweak to preselect: the latest one logged since the last run, if any. */
+  defaultTweakId?: string | null;
+  requestUpload: (buildId: string, request: UploadRequest) => Promise<UploadSlotResult>;
+  registerRun: (slotId: string, registration: RunRegistration) => Promise<RegisterResult>;
+  /** Largest file the server accepts, bytes (shown and checked before uploading). */
+  maxBytes?: number;
+}
+
+type Phase =
+  | { kind: "idle" }
+  | { kind: "uploading"; progress: UploadProgress }
+  | { kind: "registering" }
+  | { kind: "duplicate"; slotId: string; registration: RunRegistration; duplicate: DuplicateRun }
+  | { kind: "done"; runId: string };
+
+type Sniff = { state: "none" } | { state: "reading" } | { state: "ok"; header: SniffedHeader } | { state: "problem"; message: string };
+
+function numberOrNull(text: string): number | null | "bad" {
+  const t = text.trim().replace(",", ".");
+  if (t === "") return null;
+  const n = Number(t);
+  return Number.isFinite(n) ? n : "bad";
+}
+
+/**
+ * The capture upload: pick or drop a CSV, choose the channel from the columns found in its first 64 kB, say how it
+ * was measured, then the file goes straight to storage with real progress, and the run is registered.
+ */
+export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, registerRun, maxBytes }: UploadFormProps) {
+  const router = useRouter();
+  const ids = useId();
+  const id = (name: string) => `${ids}-${name}`;
+  const inputRef = useRef<HTMLInputElement>(null);
+  const uploadRef = useRef<UploadHandle | null>(null);
+  const [file, setFile] = useState<File | null>(null);
+  const [sniff, setSniff] = useState<Sniff>({ state: "none" });
+  const [dragging, setDragging] = useState(false);
+  const [phase, setPhase] = useState<Phase>({ kind: "idle" });
+  const [message, setMessage] = useState<string | null>(null);
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+
+  const [channel, setChannel] = useState("");
+  const [probe, setProbe] = useState("1");
+  const [supply, setSupply] = useState("");
+  const [temperature, setTemperature] = useState("");
+  const [note, setNote] = useState("");
+  const [tweakId, setTweakId] = useState(defaultTweakId ?? "");
+
+  const busy = phase.kind === "uploading" || phase.kind === "registering";
+
+  async function choose(next: File | null) {
+    setMessage(null);
+    setErrors({});
+    setPhase({ kind: "idle" });
+    setFile(next);
+    setChannel("");
+    if (!next) {
+      setSniff({ state: "none" });
+      return;
+    }
+    setSniff({ state: "reading" });
+    try {
+      // Only the start of the file is read here; the upload itself streams the File from disk.
+      const bytes = new Uint8Array(await next.slice(0, SNIFF_BYTES).arrayBuffer());
+      const decoded = decodeCaptureStart(bytes);
+      if (!decoded.ok) {
+        setSniff({ state: "problem", message: decoded.message });
+        return;
+      }
+      const result = sniffCaptureHeader(decoded.text, next.size <= SNIFF_BYTES);
+      if (result.ok) {
+        setSniff({ state: "ok", header: result.header });
+        setChannel(result.header.channels[0]?.name ?? "");
+      } else {
+        setSniff({ state: "problem", message: result.message });
+      }
+    } catch {
+      setSniff({ state: "problem", message: "The file could not be read. Choose it again." });
+    }
+  }
+
+  function onDrop(event: DragEvent<HTMLDivElement>) {
+    event.preventDefault();
+    setDragging(false);
+    if (busy) return;
+    const dropped = event.dataTransfer.files?.[0];
+    if (dropped) void choose(dropped);
+  }
+
+  function readRegistration(): RunRegistration | null {
+    const problems: Record<string, string[]> = {};
+    const probeValue = numberOrNull(probe);
+    if (probeValue === null || probeValue === "bad" || probeValue <= 0) {
+      problems.probeAttenuation = ["Give the probe attenuation as a number above 0 (1 if the scope already scaled for the probe)."];
+    }
+    const supplyValue = numberOrNull(supply);
+    if (supplyValue === "bad") problems.supplyV = ["Give the supply voltage as a number of volts, or leave it empty."];
+    const temperatureValue = numberOrNull(temperature);
+    if (temperatureValue === "bad") problems.temperatureC = ["Give the temperature as a number of °C, or leave it empty."];
+    setErrors(problems);
+    if (Object.keys(problems).length > 0) return null;
+    return {
+      channel: channel.trim() === "" ? null : channel.trim(),
+      probeAttenuation: probeValue as number,
+      supplyV: supplyValue as number | null,
+      temperatureC: temperatureValue as number | null,
+      note: note.trim(),
+      tweakId: tweakId === "" ? null : tweakId,
+      keepDuplicate: false,
+    };
+  }
+
+  async function register(slotId: string, registration: RunRegistration) {
+    setPhase({ kind: "registering" });
+    let result: RegisterResult;
+    try {
+      result = await registerRun(slotId, registration);
+    } catch {
+      setPhase({ kind: "idle" });
+      setMessage("The file is stored, but registering the run failed on the server. Try the upload again.");
+      return;
+    }
+    if (result.ok) {
+      setPhase({ kind: "done", runId: result.runId });
+      router.push(`/runs/${result.runId}`);
+      return;
+    }
+    if (result.duplicateOf) {
+      setPhase({ kind: "duplicate", slotId, registration, duplicate: result.duplicateOf });
+      return;
+    }
+    setPhase({ kind: "idle" });
+    setErrors(result.errors ?? {});
+    setMessage(result.message);
+  }
+
+  async function submit() {
+    setMessage(null);
+    if (!file) {
+      setErrors({ file: ["Choose a capture CSV first."] });
+      return;
+    }
+    if (maxBytes !== undefined && file.size > maxBytes) {
+      setErrors({ file: [`This file is ${formatBytes(file.size)}; the largest capture accepted is ${formatBytes(maxBytes)}.`] });
+      return;
+    }
+    const registration = readRegistration();
+    if (!registration) return;
+
+    setPhase({ kind: "uploading", progress: { loadedBytes: 0, totalBytes: file.size, bytesPerSecond: 0, secondsLeft: null } });
+    let slot: UploadSlotResult;
+    try {
+      slot = await requestUpload(buildId, {
+        filename: file.name,
+        sizeBytes: file.size,
+        contentType: file.type || "text/csv",
+      });
+    } catch {
+      slot = { ok: false, message: "The server could not prepare the upload. Try again." };
+    }
+    if (!slot.ok) {
+      setPhase({ kind: "idle" });
+      setMessage(slot.message);
+      return;
+    }
+
+    const handle = putWithProgress(slot.uploadUrl, file, slot.headers ?? {}, (progress) =>
+      setPhase({ kind: "uploading", progress }),
+    );
+    uploadRef.current = handle;
+    try {
+      await handle.done;
+    } catch (err) {
+      setPhase({ kind: "idle" });
+      setMessage(err instanceof UploadCancelledError ? "Upload cancelled. Nothing was logged." : (err as Error).message);
+      return;
+    } finally {
+      uploadRef.current = null;
+    }
+    await register(slot.slotId, registration);
+  }
+
+  const progress = phase.kind === "uploading" ? phase.progress : null;
+  const fraction = progress && progress.totalBytes > 0 ? progress.loadedBytes / progress.totalBytes : 0;
+
+  return (
+    <form
+      className="space-y-4"
+      aria-label="Upload a capture"
+      onSubmit={(event) => {
+        event.preventDefault();
+        if (!busy) void submit();
+      }}
+    >
+      <FormMessage message={message} />
+
+      <div
+        onDragOver={(event) => {
+          event.preventDefault();
+          if (!busy) setDragging(true);
+        }}
+        onDragLeave={() => setDragging(false)}
+        onDrop={onDrop}
+        className={cn(
+          "rounded-lg border-2 border-dashed px-4 py-5 text-center transition-colors focus-within:border-copper",
+          dragging ? "border-copper bg-copper-light/60" : "border-rule-strong bg-paper",
+          errors.file && "border-verdict-fail",
+        )}
+      >
+        <input
+          ref={inputRef}
+          id={id("file")}
+          type="file"
+          accept=".csv,.txt,.tsv,text/csv,text/plain"
+          className="sr-only"
+          disabled={busy}
+          aria-describedby={describedBy(id("file"))}
+          aria-invalid={errors.file ? true : undefined}
+          onChange={(event) => void choose(event.target.files?.[0] ?? null)}
+        />
+        {file ? (
+          <div className="space-y-1">
+            <p className="break-all font-medium text-ink">{file.name}</p>
+            <p className="num font-mono text-xs text-ink-soft">{formatBytes(file.size)}</p>
+          </div>
+        ) : (
+          <p className="text-sm text-ink-soft">
+            <span aria-hidden="true" className="mr-1">⇪</span>
+            Drop a capture CSV here, or
+          </p>
+        )}
+        <label
+          htmlFor={id("file")}
+          className={cn(
+            "mt-3 inline-flex h-9 cursor-pointer items-center rounded-md border border-rule-strong bg-paper-raised px-3.5 text-sm font-medium text-ink hover:bg-paper-sunk",
+            busy && "pointer-events-none opacity-50",
+          )}
+        >
+          {file ? "Choose another file" : "Choose a file"}
+        </label>
+        <div id={`${id("file")}-hint`} className="mt-2 text-xs text-ink-faint">
+          CSV from the scope: an optional preamble, a header row naming the columns (e.g. Time (s), Out (V)), then the
+          samples. Large files are fine{maxBytes ? ` (up to ${formatBytes(maxBytes)})` : ""}.
+        </div>
+        <div id={`${id("file")}-error`} aria-live="polite">
+          {errors.file?.map((e) => (
+            <p key={e} className="mt-1 text-xs font-medium text-verdict-fail">
+              {e}
+            </p>
+          ))}
+        </div>
+      </div>
+
+      <SniffSummary sniff={sniff} />
+
+      <div className="grid gap-4 sm:grid-cols-2">
+        {sniff.state === "ok" ? (
+          <Field id={id("channel")} label="Channel to analyse" hint="The voltage columns found in the file's header.">
+            <Select
+              id={id("channel")}
+              value={channel}
+              onChange={(e) => setChannel(e.target.value)}
+              disabled={busy}
+              aria-describedby={describedBy(id("channel"))}
+            >
+              {sniff.header.channels.map((c) => (
+                <option key={c.index} value={c.name}>
+                  {c.header}
+                </option>
+              ))}
+            </Select>
+          </Field>
+        ) : (
+          <Field
+            id={id("channel")}
+            label="Channel to analyse"
+            hint="Column name as in the header; leave empty to analyse the first voltage column."
+            errors={errors.channel}
+          >
+            <Input
+              id={id("channel")}
+              value={channel}
+              onChange={(e) => setChannel(e.target.value)}
+              disabled={busy}
+              placeholder="e.g. Out"
+              aria-describedby={describedBy(id("channel"))}
+            />
+          </Field>
+        )}
+        <Field
+          id={id("probe")}
+          label="Probe attenuation (×)"
+          hint="1 if the scope already scaled the samples for the probe."
+          errors={errors.probeAttenuation}
+        >
+          <Input
+            id={id("probe")}
+            inputMode="decimal"
+            list={id("probe-list")}
+            value={probe}
+            onChange={(e) => setProbe(e.target.value)}
+            disabled={busy}
+            aria-describedby={describedBy(id("probe"))}
+            aria-invalid={errors.probeAttenuation ? true : undefined}
+            className="num font-mono"
+          />
+          <datalist id={id("probe-list")}>
+            <option value="1" />
+            <option value="10" />
+            <option value="100" />
+          </datalist>
+        </Field>
+        <Field id={id("supply")} label="Supply (V)" hint="Optional." errors={errors.supplyV}>
+          <Input
+            id={id("supply")}
+            inputMode="decimal"
+            value={supply}
+            onChange={(e) => setSupply(e.target.value)}
+            disabled={busy}
+            placeholder="e.g. 9"
+            aria-describedby={describedBy(id("supply"))}
+            aria-invalid={errors.supplyV ? true : undefined}
+            className="num font-mono"
+          />
+        </Field>
+        <Field id={id("temperature")} label="Temperature (°C)" hint="Optional: at the board." errors={errors.temperatureC}>
+          <Input
+            id={id("temperature")}
+            inputMode="decimal"
+            value={temperature}
+            onChange={(e) => setTemperature(e.target.value)}
+            disabled={busy}
+            placeholder="e.g. 23.5"
+            aria-describedby={describedBy(id("temperature"))}
+            aria-invalid={errors.temperatureC ? true : undefined}
+            className="num font-mono"
+          />
+        </Field>
+        <Field
+          id={id("tweak")}
+          label="This run follows tweak"
+          hint="Ties the run to the change it measures."
+          errors={errors.tweakId}
+          className="sm:col-span-2"
+        >
+          <Select
+            id={id("tweak")}
+            value={tweakId}
+            onChange={(e) => setTweakId(e.target.value)}
+            disabled={busy}
+            aria-describedby={describedBy(id("tweak"))}
+          >
+            <option value="">No tweak (as built)</option>
+            {tweaks.map((t) => (
+              <option key={t.id} value={t.id}>
+                {t.label}
+              </option>
+            ))}
+          </Select>
+        </Field>
+        <Field id={id("note")} label="Note" hint="Optional: what you did or saw." errors={errors.note} className="sm:col-span-2">
+          <Textarea
+            id={id("note")}
+            rows={2}
+            value={note}
+            onChange={(e) => setNote(e.target.value)}
+            disabled={busy}
+            aria-describedby={describedBy(id("note"))}
+          />
+        </Field>
+      </div>
+
+      {phase.kind === "uploading" && progress ? (
+        <div className="space-y-2 rounded-lg border border-rule bg-paper px-3 py-3" aria-live="polite">
+          <ProgressBar value={fraction} label="Upload progress" />
+          <div className="num flex flex-wrap items-center justify-between gap-x-4 gap-y-1 font-mono text-xs text-ink-soft">
+            <span>
+              <strong className="text-ink">{(fraction * 100).toFixed(1)} %</strong> · {formatBytes(progress.loadedBytes)} of{" "}
+              {formatBytes(progress.totalBytes)}
+            </span>
+            <span>
+              {progress.bytesPerSecond > 0 ? formatRate(progress.bytesPerSecond) : "measuring speed…"}
+              {progress.secondsLeft !== null ? ` · ${formatDuration(progress.secondsLeft)} left` : ""}
+            </span>
+          </div>
+        </div>
+      ) : null}
+
+      {phase.kind === "registering" ? (
+        <p role="status" className="text-sm text-ink-soft">
+          Stored. Registering the run and queueing its analysis…
+        </p>
+      ) : null}
+
+      {phase.kind === "duplicate" ? (
+        <div role="alert" className="space-y-3 rounded-lg border border-verdict-warn/50 bg-verdict-warnBg px-3 py-3 text-sm">
+          <p className="text-ink">
+            <span aria-hidden="true" className="mr-1 font-semibold text-verdict-warn">⧉</span>
+            This exact file is already logged on this build: <strong>{phase.duplicate.originalFilename}</strong>, uploaded{" "}
+            {formatDateTime(phase.duplicate.createdAt)}.
+          </p>
+          <div className="flex flex-wrap gap-2">
+            <Link
+              href={`/runs/${phase.duplicate.runId}`}
+              className="inline-flex h-9 items-center rounded-md border border-copper bg-copper px-3.5 text-sm font-medium text-white hover:bg-copper-dark"
+            >
+              Open the existing run
+            </Link>
+            <Button
+              variant="secondary"
+              onClick={() => void register(phase.slotId, { ...phase.registration, keepDuplicate: true })}
+            >
+              Keep both
+            </Button>
+          </div>
+        </div>
+      ) : null}
+
+      {phase.kind === "done" ? (
+        <p role="status" className="text-sm text-verdict-pass">
+          Run registered. Opening it…
+        </p>
+      ) : null}
+
+      <div className="flex flex-wrap items-center gap-2">
+        {phase.kind === "uploading" ? (
+          <Button variant="danger" onClick={() => uploadRef.current?.cancel()}>
+            Cancel upload
+          </Button>
+        ) : (
+          <Button type="submit" disabled={busy || !file || phase.kind === "duplicate" || phase.kind === "done"}>
+            Upload and analyse
+          </Button>
+        )}
+        {file && !busy && phase.kind !== "done" ? (
+          <Button
+            variant="ghost"
+            onClick={() => {
+              if (inputRef.current) inputRef.current.value = "";
+              void choose(null);
+            }}
+          >
+            Clear
+          </Button>
+        ) : null}
+      </div>
+    </form>
+  );
+}
+
+function SniffSummary({ sniff }: { sniff: Sniff }) {
+  if (sniff.state === "none") return null;
+  if (sniff.state === "reading") {
+    return (
+      <p role="status" className="text-xs text-ink-soft">
+        Reading the header…
+      </p>
+    );
+  }
+  if (sniff.state === "problem") {
+    return (
+      <p role="alert" className="rounded-md border border-verdict-warn/50 bg-verdict-warnBg px-3 py-2 text-sm text-ink">
+        <span aria-hidden="true" className="mr-1 font-semibold text-verdict-warn">!</span>
+        {sniff.message} You can still upload it; the analysis will say exactly what it cannot read.
+      </p>
+    );
+  }
+  const h = sniff.header;
+  const delimiterName = h.delimiter === "," ? "comma" : h.delimiter === ";" ? "semicolon" : "tab";
+  const preambleCount = Object.keys(h.preamble).length;
+  return (
+    <p role="status" className="text-xs text-ink-soft">
+      <span aria-hidden="true" className="mr-1 text-verdict-pass">✓</span>
+      Header on line {h.headerLine}, {h.columns.length} columns ({delimiterName}-separated)
+      {h.timeColumn ? `, time in “${h.timeColumn.header}”` : ", no time column (the preamble must give the sample rate)"}
+      {preambleCount > 0 ? `, ${preambleCount} preamble line${preambleCount === 1 ? "" : "s"}` : ""}.
+    </p>
+  );
+}
