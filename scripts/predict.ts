@@ -215,6 +215,8 @@ function parseArgs(argv: string[]): Parsed {
 
 const eng = (value: number, unit: string, figures = 6): string => formatEngineering(value, unit, figures);
 const part = (value: number, unit: string): string => formatEngineering(value, unit, 4, { trimZeros: true });
+/** A frequency the user typed, shown without padding zeros it never had. */
+const given = (value: number, unit: string): string => formatEngineering(value, unit, 9, { trimZeros: true });
 const signed = (text: string): string => (text.startsWith("-") ? text : `+${text}`);
 const percentOf = (value: number, reference: number): string => signed(`${(((value - reference) / reference) * 100).toFixed(3)} %`);
 
@@ -277,7 +279,7 @@ function humanReport(parsed: Parsed, report: DesignReport, temperature?: Tempera
   if (report.drift) {
     const d = report.drift;
     out.push(
-      `Measured ${eng(d.measuredHz, "Hz")}: drift ${signed(eng(d.hz, "Hz", 5))} (${signed(`${d.percent.toFixed(3)} %`)}, ${signed(d.ppm.toFixed(0))} ppm)`,
+      `Measured ${given(d.measuredHz, "Hz")}: drift ${signed(eng(d.hz, "Hz", 5))} (${signed(`${d.percent.toFixed(3)} %`)}, ${signed(d.ppm.toFixed(0))} ppm)`,
     );
     out.push(`  implied extra capacitance  ${signed(eng(d.impliedExtraCapacitanceF, "F", 4))} (equivalent parallel)`);
     out.push(`  or inductance error        ${signed(eng(d.impliedInductanceErrorH, "H", 4))} (${signed(`${d.impliedInductanceErrorPercent.toFixed(3)} %`)})`);
@@ -289,7 +291,7 @@ function humanReport(parsed: Parsed, report: DesignReport, temperature?: Tempera
     const change = r.changed
       ? `change ${r.part} ${part(r.fromSi, r.unit)} -> ${part(r.toSi, r.unit)}`
       : `keep ${r.part} at ${part(r.fromSi, r.unit)}: no single ${r.series} value comes closer`;
-    out.push(`Retune to ${eng(r.targetHz, "Hz")} (${r.series}, ${basis}): ${change}`);
+    out.push(`Retune to ${given(r.targetHz, "Hz")} (${r.series}, ${basis}): ${change}`);
     if (r.idealSi !== null) out.push(`  exact value for the target would be ${eng(r.idealSi, r.unit, 4)}`);
     out.push(`  predicted ${eng(r.predictedHz, "Hz")} (${percentOf(r.predictedHz, r.targetHz)} from target)`);
     if (w.corners > 1) {
