@@ -239,7 +239,8 @@ function describeParts(design: OscillatorDesign): string {
       const role = TOPOLOGY_PARTS[design.topology][ref];
       const unit = role.kind === "capacitance" ? "F" : role.kind === "inductance" ? "H" : "";
       const tolerance = p.tolerance ? ` ±${Number((p.tolerance * 100).toPrecision(6))} %` : "";
-      return `${ref} = ${part(p.valueSi, unit)}${tolerance}`;
+      const value = unit === "" ? String(Number(p.valueSi.toPrecision(4))) : part(p.valueSi, unit);
+      return `${ref} = ${value}${tolerance}`;
     })
     .join(", ");
 }
@@ -294,6 +295,9 @@ function humanReport(parsed: Parsed, report: DesignReport, temperature?: Tempera
     out.push(`Retune to ${given(r.targetHz, "Hz")} (${r.series}, ${basis}): ${change}`);
     if (r.idealSi !== null) out.push(`  exact value for the target would be ${eng(r.idealSi, r.unit, 4)}`);
     out.push(`  predicted ${eng(r.predictedHz, "Hz")} (${percentOf(r.predictedHz, r.targetHz)} from target)`);
+    if (r.changed && r.feedbackFraction !== null && r.minGain !== null && r.feedbackFraction !== report.feedbackFraction) {
+      out.push(`  feedback fraction becomes ${r.feedbackFraction.toPrecision(4)} (minimum start-up gain ${r.minGain.toPrecision(4)})`);
+    }
     if (w.corners > 1) {
       out.push(`  worst case ${eng(r.worstCase.minHz, "Hz")} to ${eng(r.worstCase.maxHz, "Hz")}, statistical ${eng(r.statistical.minHz, "Hz")} to ${eng(r.statistical.maxHz, "Hz")}`);
     }

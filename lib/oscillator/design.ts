@@ -75,7 +75,11 @@ export const TOPOLOGY_PARTS: Record<Topology, Readonly<Record<string, PartRole>>
 
 const UNIT_OF_KIND: Record<PartKind, string> = { inductance: "H", capacitance: "F", coupling: "" };
 
-/** The SI unit symbol of a part ("F", "H", or "" for k). */
+/**
+ * The SI unit symbol of a part: "F", "H", or "" for the coupling coefficient k.
+ *
+ * @throws RangeError when the topology does not use the part.
+ */
 export function partUnit(topology: Topology, ref: string): string {
   const role = TOPOLOGY_PARTS[topology][ref];
   if (!role) throw new RangeError(`part ${ref} is not used by ${topology}`);

@@ -29,7 +29,7 @@ export interface DesignReport {
   minGain: number | null;
   assumptions: string;
   worstCase: Pick<WorstCaseBand, "minHz" | "maxHz" | "corners">;
-  statistical: Omit<StatisticalBand, "meanHz" | "stdDevHz"> & { meanHz: number; stdDevHz: number };
+  statistical: StatisticalBand;
   rss: RssBand;
   drift?: Omit<DriftAnalysis, "predictedHz">;
   retune?: Omit<RetuneSuggestion, "design">;

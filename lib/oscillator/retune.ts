@@ -6,7 +6,7 @@
 import { assertValidDesign, nominalValues, parallelCapacitanceF, TOPOLOGY_PARTS, type OscillatorDesign } from "./design";
 import { analyseDrift } from "./drift";
 import { preferredValuesBetween, type ESeriesName } from "./e-series";
-import { frequencyFromValues } from "./topologies";
+import { frequencyFromValues, tankModel } from "./topologies";
 import { statisticalBand, worstCaseBand, type FrequencyBand, type StatisticalOptions } from "./tolerance";
 
 /** Candidates span three decades either side of the fitted value; a bigger jump is a redesign, not a tweak. */
@@ -101,6 +101,9 @@ export interface RetuneSuggestion {
   predictedHz: number;
   errorHz: number;
   errorPercent: number;
+  /** Feedback fraction and minimum start-up gain after the change (a divider capacitor moves them). */
+  feedbackFraction: number | null;
+  minGain: number | null;
   series: ESeriesName;
   /** The signed capacitance taken from the measurement, F (0 without one). */
   calibrationCapacitanceF: number;
@@ -166,6 +169,7 @@ export function suggestRetune(design: OscillatorDesign, options: RetuneOptions):
   const worst = worstCaseBand(retuned);
   const stat = statisticalBand(retuned, options.statistical);
   const unit = role.kind === "capacitance" ? "F" : "H";
+  const after = tankModel(retuned.topology, nominalValues(retuned), parallelCapacitanceF(retuned), retuned.windings);
   return {
     part: best.ref,
     unit,
@@ -181,6 +185,8 @@ export function suggestRetune(design: OscillatorDesign, options: RetuneOptions):
     predictedHz: best.hz,
     errorHz: best.hz - targetHz,
     errorPercent: ((best.hz - targetHz) / targetHz) * 100,
+    feedbackFraction: after.feedbackFraction,
+    minGain: after.minGain,
     series,
     calibrationCapacitanceF,
     worstCase: { minHz: worst.minHz, maxHz: worst.maxHz },

@@ -148,6 +148,9 @@ function percentile(sorted: Float64Array, p: number): number {
   return sorted[lo] + (sorted[hi] - sorted[lo]) * (position - lo);
 }
 
+/** Most simulated builds one call may ask for. */
+export const MAX_TRIALS = 1_000_000;
+
 export interface StatisticalOptions {
   /** Generator seed; default 1. The same seed and design always give the same band. */
   seed?: number;
@@ -174,7 +177,7 @@ export interface StatisticalBand extends FrequencyBand {
  * @param design - validated first.
  * @param options - seed, trials and coverage.
  * @returns band in Hz with mean and standard deviation of the simulated f0.
- * @throws RangeError when the design is invalid, trials is not an integer of at least 100, or coverage is not
+ * @throws RangeError when the design is invalid, trials is not an integer from 100 to {@link MAX_TRIALS}, or coverage is not
  *   strictly between 0 and 1.
  */
 export function statisticalBand(design: OscillatorDesign, options: StatisticalOptions = {}): StatisticalBand {
@@ -182,7 +185,10 @@ export function statisticalBand(design: OscillatorDesign, options: StatisticalOp
   const seed = options.seed ?? 1;
   const trials = options.trials ?? 20_000;
   const coverage = options.coverage ?? 0.997;
-  if (!Number.isInteger(trials) || trials < 100) throw new RangeError(`trials must be an integer of at least 100; got ${trials}`);
+  // The upper limit keeps one request from tying up a server for minutes.
+  if (!Number.isInteger(trials) || trials < 100 || trials > MAX_TRIALS) {
+    throw new RangeError(`trials must be an integer from 100 to ${MAX_TRIALS}; got ${trials}`);
+  }
   if (!(coverage > 0 && coverage < 1)) throw new RangeError(`coverage must be between 0 and 1; got ${coverage}`);
   if (!Number.isFinite(seed)) throw new RangeError(`seed must be a finite number; got ${seed}`);
 
