@@ -52,6 +52,21 @@ describe("predict command", () => {
     expect(stdout).toMatch(/C1 = 1 nF ±5 %, C2 = 4\.7 nF ±1 %, extra C = 3 pF/);
   });
 
+  it("lets a named tolerance win over its group whatever the order, and reports the tempco shift", () => {
+    const { code, stdout } = predict(
+      "--topology", "clapp", "L=100u", "C1=1n", "C2=2n2", "C3=100p",
+      "--tol", "C3=1%", "C=5%", "--tempco", "C=C0G", "--delta-t", "40", "--json",
+    );
+    expect(code).toBe(0);
+    const out = JSON.parse(stdout);
+    expect(out.design.parts.C3.tolerance).toBe(0.01);
+    expect(out.design.parts.C1.tolerance).toBe(0.05);
+    expect(out.design.parts.L.tolerance).toBeUndefined();
+    expect(out.temperature.temperatureChangeK).toBe(40);
+    expect(out.temperature.minHz).toBeLessThan(out.predictedHz);
+    expect(out.temperature.maxHz).toBeGreaterThan(out.predictedHz);
+  });
+
   it("refuses bad input with one line on stderr and nothing on stdout", () => {
     for (const args of [
       ["--topology", "colpitts", "L=100u", "C1=1n", "C2=4.7q"],
@@ -62,6 +77,9 @@ describe("predict command", () => {
       ["--topology", "tank", "L=100u", "C=4.7 nH"],
       ["--topology", "tank", "L=100u", "C=1n", "--bogus"],
       ["--topology", "tank", "L=100u", "C=1n", "--measured"],
+      ["--topology", "tank", "L=100u", "C=1n", "--measured", "-5k"],
+      ["--topology", "colpitts", "L=100u", "C1=1n", "C2=1n", "--tol", "C3=5%"],
+      ["--topology", "tank", "L=100u", "C=1n", "--target", "1M", "--part", "C7"],
     ]) {
       const { code, stdout, stderr } = predict(...args);
       expect(code, args.join(" ")).toBe(2);
