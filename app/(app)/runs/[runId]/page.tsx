@@ -1,0 +1,66 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { isRowId } from "@/components/logbook/route-ids";
+import { RunView } from "@/components/logbook/run-view";
+import type { RunContext } from "@/components/logbook/run-types";
+import { tweakLabel } from "@/components/logbook/tweak-label";
+import { QueryProvider } from "@/components/providers/query-provider";
+import { PageHeader } from "@/components/ui/page-header";
+import { getBuild } from "@/db/queries/builds";
+import { getRun } from "@/db/queries/runs";
+import { getTweak } from "@/db/queries/tweaks";
+import { requireUser } from "@/lib/auth/current-user";
+import { can } from "@/lib/auth/permissions";
+import { formatDateTime } from "@/lib/format/dates";
+
+type Params = { params: Promise<{ runId: string }> };
+
+export async function generateMetadata({ params }: Params): Promise<Metadata> {
+  const { runId } = await params;
+  const run = isRowId(runId) ? await getRun(runId) : null;
+  return { title: run ? `Run ${run.originalFilename}` : "Run" };
+}
+
+export default async function RunPage({ params }: Params) {
+  const { runId } = await params;
+  const user = await requireUser(`/runs/${runId}`);
+  if (!isRowId(runId)) notFound();
+  const run = await getRun(runId);
+  if (!run) notFound();
+  const [build, tweak] = await Promise.all([getBuild(run.buildId), run.tweakId ? getTweak(run.tweakId) : null]);
+  if (!build) notFound();
+
+  const context: RunContext = {
+    projectId: build.projectId,
+    projectName: build.projectName,
+    designId: build.designId,
+    designName: build.designName,
+    buildId: build.id,
+    buildLabel: build.label,
+    tweakLabel: tweak ? tweakLabel(tweak, run.snapshot.topology) : null,
+  };
+
+  return (
+    <>
+      <PageHeader
+        eyebrow={
+          <Breadcrumbs
+            items={[
+              { label: "Projects", href: "/projects" },
+              { label: build.projectName, href: `/projects/${build.projectId}` },
+              { label: build.designName, href: `/projects/${build.projectId}/designs/${build.designId}` },
+              { label: build.label, href: `/builds/${build.id}` },
+              { label: "Run" },
+            ]}
+          />
+        }
+        title={<span className="break-all">{run.originalFilename}</span>}
+        description={`Run on build ${build.label}, logged ${formatDateTime(run.createdAt)}.`}
+      />
+      <QueryProvider>
+        <RunView initialRun={run} context={context} canReanalyse={can(user.role, "run:reanalyse")} />
+      </QueryProvider>
+    </>
+  );
+}

@@ -1,0 +1,49 @@
+import { VerdictBadge } from "@/components/ui/verdict-badge";
+import type { SpecCheck } from "@/lib/spec/types";
+import { MINUS } from "@/lib/format/numbers";
+
+const ruleNames: Record<string, string> = {
+  frequency: "Frequency",
+  thd: "THD",
+  amplitude: "Fundamental amplitude",
+  "in-record-drift": "Drift within the record",
+};
+
+function ruleName(rule: string): string {
+  if (ruleNames[rule]) return ruleNames[rule];
+  const harmonic = /^harmonic-(\d+)$/.exec(rule);
+  if (harmonic) return `Harmonic ${harmonic[1]}`;
+  const warning = /^warning-(.+)$/.exec(rule);
+  if (warning) return `Trust: ${warning[1].replace(/-/g, " ")}`;
+  return rule;
+}
+
+function marginText(check: SpecCheck): string | null {
+  if (check.margin === null) return null;
+  const digits = check.unit === "ppm" ? 0 : check.unit === "V" ? 3 : check.unit === "%" ? 3 : 1;
+  const size = Math.abs(check.margin).toFixed(digits);
+  return `${check.passed ? "inside by" : "outside by"} ${size} ${check.unit}`.replace(/-/g, MINUS);
+}
+
+/** The spec verdict rule by rule: pass or fail in word and icon, how much margin, and the sentence. */
+export function SpecVerdictList({ checks }: { checks: SpecCheck[] }) {
+  return (
+    <ul className="divide-y divide-rule/70" aria-label="Spec checks">
+      {checks.map((c) => {
+        const margin = marginText(c);
+        return (
+          <li key={c.rule} className="flex flex-col gap-1 py-2 sm:flex-row sm:items-start sm:gap-3">
+            <div className="flex shrink-0 items-center gap-2 sm:w-52">
+              <VerdictBadge verdict={c.passed ? "pass" : "fail"} />
+              <span className="text-sm font-medium text-ink">{ruleName(c.rule)}</span>
+            </div>
+            <div className="min-w-0 text-sm">
+              {margin ? <span className="num mr-2 font-mono text-xs font-semibold text-ink">{margin}</span> : null}
+              <span className="text-ink-soft">{c.message}</span>
+            </div>
+          </li>
+        );
+      })}
+    </ul>
+  );
+}

@@ -1,0 +1,26 @@
+import type { Tweak } from "@/db/queries/tweaks";
+import { partUnit, type Topology } from "@/lib/oscillator/design";
+import { formatPartValue } from "@/lib/format/numbers";
+
+function unitOf(topology: Topology, ref: string): string {
+  try {
+    return partUnit(topology, ref);
+  } catch {
+    return "";
+  }
+}
+
+/**
+ * A tweak in a few words: "C2 4.7 nF → 5.6 nF", with its note after a dash, or the note alone.
+ *
+ * @param tweak - the tweak (values in SI units).
+ * @param topology - the design's topology, to know each part's unit.
+ */
+export function tweakLabel(tweak: Pick<Tweak, "partRef" | "fromValue" | "toValue" | "note">, topology: Topology): string {
+  if (tweak.partRef) {
+    const unit = unitOf(topology, tweak.partRef);
+    const change = `${tweak.partRef} ${formatPartValue(tweak.fromValue, unit)} → ${formatPartValue(tweak.toValue, unit)}`;
+    return tweak.note ? `${change} — ${tweak.note}` : change;
+  }
+  return tweak.note || "note";
+}
