@@ -1,9 +1,10 @@
-// `npx tsx scripts/seed.ts [--allow-production]`: the demo data `npm start` loads once. Each step checks
+// `npx tsx scripts/seed.ts [--allow-production] [--accounts-file PATH]`: the demo data `npm start` loads once. Each step checks
 // whether its data is already there, so running it again changes nothing. Add a step by importing its
 // function and appending it to `steps`.
 import { mkdirSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { parseArgs } from "node:util";
 import { generateIdFromEntropySize } from "lucia";
 import { closeDb, db } from "../db/index";
 import { recordAudit } from "../db/queries/audit";
@@ -34,6 +35,12 @@ const demoPeople: { role: Role; email: string; name: string }[] = [
 ];
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
+const args = parseArgs({
+  options: { "allow-production": { type: "boolean", default: false }, "accounts-file": { type: "string" } },
+  strict: true,
+}).values;
+/** Where `npm start` (scripts/bootstrap.mjs) looks for the block it prints. */
+const accountsFile = path.resolve(args["accounts-file"] ?? path.join(root, ".data", "demo-accounts.txt"));
 
 /** One account per role on demo.test (RFC 6761 reserves .test), created when missing. */
 async function seedDemoAccounts(ctx: SeedContext): Promise<void> {
@@ -56,14 +63,14 @@ async function seedDemoAccounts(ctx: SeedContext): Promise<void> {
     `  password   ${DEMO_PASSWORD}`,
     "",
   ];
-  mkdirSync(path.join(root, ".data"), { recursive: true });
-  writeFileSync(path.join(root, ".data", "demo-accounts.txt"), lines.join("\n"));
+  mkdirSync(path.dirname(accountsFile), { recursive: true });
+  writeFileSync(accountsFile, lines.join("\n"));
 }
 
 const steps: SeedStep[] = [{ name: "demo accounts", run: seedDemoAccounts }];
 
 async function main(): Promise<number> {
-  if (process.env.NODE_ENV === "production" && !process.argv.includes("--allow-production")) {
+  if (process.env.NODE_ENV === "production" && !args["allow-production"]) {
     console.error("seed: refusing to load demo accounts with NODE_ENV=production; pass --allow-production if you really mean it");
     return 2;
   }
