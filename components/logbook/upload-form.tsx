@@ -108,8 +108,8 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
   function readRegistration(): RunRegistration | null {
     const problems: Record<string, string[]> = {};
     const probeValue = numberOrNull(probe);
-    if (probeValue === null || probeValue === "bad" || probeValue <= 0) {
-      problems.probeAttenuation = ["Give the probe attenuation as a number above 0 (1 if the scope already scaled for the probe)."];
+    if (probeValue === null || probeValue === "bad" || probeValue < 1) {
+      problems.probe = ["Give the probe attenuation as a number of 1 or more (1 if the scope already scaled for the probe)."];
     }
     const supplyValue = numberOrNull(supply);
     if (supplyValue === "bad") problems.supplyV = ["Give the supply voltage as a number of volts, or leave it empty."];
@@ -119,7 +119,7 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
     if (Object.keys(problems).length > 0) return null;
     return {
       channel: channel.trim() === "" ? null : channel.trim(),
-      probeAttenuation: probeValue as number,
+      probe: probeValue as number,
       supplyV: supplyValue as number | null,
       temperatureC: temperatureValue as number | null,
       note: note.trim(),
@@ -309,7 +309,7 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
           id={id("probe")}
           label="Probe attenuation (×)"
           hint="1 if the scope already scaled the samples for the probe."
-          errors={errors.probeAttenuation}
+          errors={errors.probe}
         >
           <Input
             id={id("probe")}
@@ -319,7 +319,7 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
             onChange={(e) => setProbe(e.target.value)}
             disabled={busy}
             aria-describedby={describedBy(id("probe"))}
-            aria-invalid={errors.probeAttenuation ? true : undefined}
+            aria-invalid={errors.probe ? true : undefined}
             className="num font-mono"
           />
           <datalist id={id("probe-list")}>

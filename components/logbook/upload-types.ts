@@ -13,7 +13,8 @@ export type UploadSlotResult =
 export interface RunRegistration {
   /** The column name chosen (without its unit), or null to let the analysis pick the first voltage column. */
   channel: string | null;
-  probeAttenuation: number;
+  /** Probe attenuation factor (1, 10, 100…), named as in lib/validations/run.ts. */
+  probe: number;
   supplyV: number | null;
   temperatureC: number | null;
   note: string;
