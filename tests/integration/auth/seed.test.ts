@@ -18,14 +18,14 @@ afterAll(async () => {
 
 describe("scripts/seed.ts", () => {
   it("refuses to run with NODE_ENV=production unless --allow-production is given", async () => {
-    const err = await run(process.execPath, ["--import", "tsx", "scripts/seed.ts"], { cwd: root, env: { ...process.env, NODE_ENV: "production" } }).catch((e) => e);
+    const err = await run(process.execPath, ["--import", "tsx", "scripts/seed.ts"], { cwd: root, env: { ...process.env, NODE_ENV: "production" } as NodeJS.ProcessEnv }).catch((e) => e);
     expect(err.code).toBe(2);
     expect(err.stderr).toContain("refusing to load demo accounts with NODE_ENV=production");
   });
 
   it("creates one demo account per role on demo.test once, lists them with the password, and changes nothing the second time", async () => {
     const file = path.join(mkdtempSync(path.join(os.tmpdir(), "tankbook-seed-")), "demo-accounts.txt");
-    const env = { ...process.env, NODE_ENV: "development" };
+    const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: "development" };
     await run(process.execPath, ["--import", "tsx", "scripts/seed.ts", "--accounts-file", file], { cwd: root, env });
     const rows = await db()("auth_user").where("email", "like", "%@demo.test").select("email", "role", "id");
     expect(rows.map((r) => r.role).sort()).toEqual(["admin", "engineer", "technician", "viewer"]);
