@@ -17,7 +17,7 @@ export interface NavLinksProps {
 export function NavLinks({ items }: NavLinksProps) {
   const pathname = usePathname();
   return (
-    <ul className="flex gap-1 overflow-x-auto whitespace-nowrap text-sm">
+    <ul className="flex flex-wrap gap-1 whitespace-nowrap text-sm">
       {items.map((item) => {
         const current = pathname === item.href || pathname.startsWith(`${item.href}/`);
         return (

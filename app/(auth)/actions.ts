@@ -8,29 +8,31 @@ import { SESSION_COOKIE_NAME } from "@/lib/auth/lucia";
 import { requestPasswordReset, resetPassword } from "@/lib/auth/password-reset";
 import { requestMeta } from "@/lib/auth/request-meta";
 import { signIn, signOut, signOutEverywhere } from "@/lib/auth/sign-in";
-import { formFields, invalidState, stateFromError, type FormState } from "@/lib/auth/action-state";
+import { formFields, invalidState, keepValues, stateFromError, type FormState } from "@/lib/auth/action-state";
 import { acceptInvitationSchema, forgotPasswordSchema, resetPasswordSchema, signInSchema } from "@/lib/validations/auth";
 
 export async function signInAction(_prev: FormState, formData: FormData): Promise<FormState> {
-  const parsed = signInSchema.safeParse(formFields(formData));
-  if (!parsed.success) return invalidState(parsed.error);
+  const fields = formFields(formData);
+  const parsed = signInSchema.safeParse(fields);
+  if (!parsed.success) return keepValues(invalidState(parsed.error), { email: fields.email });
   try {
     const previousSessionId = (await cookies()).get(SESSION_COOKIE_NAME)?.value ?? null;
     const { session } = await signIn({ ...parsed.data, previousSessionId }, await requestMeta());
     await setSessionCookie(session.id);
   } catch (err) {
-    return stateFromError(err);
+    return keepValues(stateFromError(err), { email: fields.email });
   }
   redirect(parsed.data.next);
 }
 
 export async function forgotPasswordAction(_prev: FormState, formData: FormData): Promise<FormState> {
-  const parsed = forgotPasswordSchema.safeParse(formFields(formData));
-  if (!parsed.success) return invalidState(parsed.error);
+  const fields = formFields(formData);
+  const parsed = forgotPasswordSchema.safeParse(fields);
+  if (!parsed.success) return keepValues(invalidState(parsed.error), { email: fields.email });
   try {
     await requestPasswordReset(parsed.data.email, await requestMeta());
   } catch (err) {
-    return stateFromError(err);
+    return keepValues(stateFromError(err), { email: fields.email });
   }
   return {
     ok: true,
@@ -51,13 +53,14 @@ export async function resetPasswordAction(_prev: FormState, formData: FormData):
 }
 
 export async function acceptInvitationAction(_prev: FormState, formData: FormData): Promise<FormState> {
-  const parsed = acceptInvitationSchema.safeParse(formFields(formData));
-  if (!parsed.success) return invalidState(parsed.error);
+  const fields = formFields(formData);
+  const parsed = acceptInvitationSchema.safeParse(fields);
+  if (!parsed.success) return keepValues(invalidState(parsed.error), { name: fields.name });
   try {
     const { session } = await acceptInvitation(parsed.data, await requestMeta());
     await setSessionCookie(session.id);
   } catch (err) {
-    return stateFromError(err);
+    return keepValues(stateFromError(err), { name: fields.name });
   }
   redirect("/dashboard?welcome=invited");
 }

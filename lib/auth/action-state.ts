@@ -10,6 +10,18 @@ export interface FormState {
   ok?: boolean;
   /** A value to show once, e.g. a newly created API token. */
   secret?: string;
+  /**
+   * What the person typed (never passwords), so a refused form is not emptied: React 19 resets a form after
+   * its action, and the inputs take these back as their default values.
+   */
+  values?: Record<string, string>;
+}
+
+/** The state with the given typed values kept for the form. */
+export function keepValues(state: FormState, values: Record<string, string | undefined>): FormState {
+  const kept: Record<string, string> = {};
+  for (const [k, v] of Object.entries(values)) if (typeof v === "string") kept[k] = v;
+  return { ...state, values: kept };
 }
 
 /** Field errors of a zod failure keyed by the first path segment (the form field's name). */

@@ -104,7 +104,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
           <tbody>
             {events.map((e) => (
               <Tr key={e.id}>
-                <Td numeric className="whitespace-nowrap text-left">
+                <Td className="num whitespace-nowrap font-mono text-[13px]">
                   {formatUtc(e.createdAt)}
                 </Td>
                 <Td>{e.actorName ?? (e.actorId ? e.actorId : <span className="text-ink-faint">anonymous</span>)}</Td>

@@ -6,19 +6,20 @@ import { inviteUser, resendInvitation, revokeInvitation } from "@/lib/auth/invit
 import { changeRole, setUserStatus } from "@/lib/auth/people";
 import { requestMeta } from "@/lib/auth/request-meta";
 import { requirePermission } from "@/lib/auth/require-permission";
-import { formFields, invalidState, stateFromError, type FormState } from "@/lib/auth/action-state";
+import { formFields, invalidState, keepValues, stateFromError, type FormState } from "@/lib/auth/action-state";
 import { changeRoleSchema, invitationIdSchema, inviteSchema, setStatusSchema } from "@/lib/validations/people";
 
 export async function inviteAction(_prev: FormState, formData: FormData): Promise<FormState> {
+  const fields = formFields(formData);
   try {
     const actor = requirePermission(await getCurrentUser(), "people:manage");
-    const parsed = inviteSchema.safeParse(formFields(formData));
-    if (!parsed.success) return invalidState(parsed.error);
+    const parsed = inviteSchema.safeParse(fields);
+    if (!parsed.success) return keepValues(invalidState(parsed.error), { email: fields.email, role: fields.role });
     await inviteUser({ ...parsed.data, inviter: actor }, await requestMeta());
     revalidatePath("/people");
     return { ok: true, message: `Invitation sent to ${parsed.data.email} as ${parsed.data.role}. The link works for 7 days.` };
   } catch (err) {
-    return stateFromError(err);
+    return keepValues(stateFromError(err), { email: fields.email, role: fields.role });
   }
 }
 

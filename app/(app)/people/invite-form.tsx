@@ -14,10 +14,10 @@ export function InviteForm() {
       <FormMessage message={state.message} tone={state.ok ? "success" : "error"} />
       <div className="grid gap-3 sm:grid-cols-[1fr_12rem_auto] sm:items-end">
         <Field id="invite-email" label="E-mail" errors={state.errors?.email}>
-          <Input id="invite-email" name="email" type="email" required aria-describedby={describedBy("invite-email")} aria-invalid={Boolean(state.errors?.email)} />
+          <Input id="invite-email" name="email" type="email" defaultValue={state.ok ? "" : state.values?.email} required aria-describedby={describedBy("invite-email")} aria-invalid={Boolean(state.errors?.email)} />
         </Field>
         <Field id="invite-role" label="Role" errors={state.errors?.role}>
-          <Select id="invite-role" name="role" defaultValue="technician" aria-describedby={describedBy("invite-role")} aria-invalid={Boolean(state.errors?.role)}>
+          <Select id="invite-role" name="role" defaultValue={state.values?.role ?? "technician"} aria-describedby={describedBy("invite-role")} aria-invalid={Boolean(state.errors?.role)}>
             {roles.map((r) => (
               <option key={r} value={r}>
                 {r}

@@ -46,11 +46,11 @@ export default async function PeoplePage() {
         <tbody>
           {people.map((p) => (
             <Tr key={p.id}>
-              <Td className="font-medium">
+              <Td className="whitespace-nowrap font-medium">
                 {p.name}
                 {p.id === me.id ? <span className="ml-1 text-xs font-normal text-ink-faint">(you)</span> : null}
               </Td>
-              <Td className="break-all">{p.email}</Td>
+              <Td className="whitespace-nowrap">{p.email}</Td>
               <Td>
                 <InlineActionForm action={changeRoleAction} submitLabel="Save" submitAriaLabel={`Save the role of ${p.name}`}>
                   <input type="hidden" name="userId" value={p.id} />
@@ -63,7 +63,7 @@ export default async function PeoplePage() {
                   </Select>
                 </InlineActionForm>
               </Td>
-              <Td numeric className="text-left">
+              <Td className="num whitespace-nowrap font-mono text-[13px]">
                 {p.lastSeenAt ? formatUtc(p.lastSeenAt) : "never"}
               </Td>
               <Td>
@@ -102,10 +102,10 @@ export default async function PeoplePage() {
           <tbody>
             {invitations.map((inv) => (
               <Tr key={inv.id}>
-                <Td className="break-all">{inv.email}</Td>
+                <Td className="whitespace-nowrap">{inv.email}</Td>
                 <Td>{inv.role}</Td>
                 <Td>{inv.invitedByName ?? "—"}</Td>
-                <Td numeric className="text-left">
+                <Td className="num whitespace-nowrap font-mono text-[13px]">
                   {inv.expiresAt.getTime() < now ? <span className="font-semibold text-verdict-warn">expired </span> : null}
                   {formatUtc(inv.expiresAt)}
                 </Td>

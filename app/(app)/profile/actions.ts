@@ -2,7 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { createApiToken, revokeApiToken } from "@/lib/auth/api-tokens";
-import { formFields, invalidState, stateFromError, type FormState } from "@/lib/auth/action-state";
+import { formFields, invalidState, keepValues, stateFromError, type FormState } from "@/lib/auth/action-state";
 import { getCurrentSession } from "@/lib/auth/current-user";
 import { changePassword, renameUser, updateNotificationPreferences } from "@/lib/auth/profile";
 import { requestMeta } from "@/lib/auth/request-meta";
@@ -22,11 +22,12 @@ async function signedIn() {
 export async function renameAction(_prev: FormState, formData: FormData): Promise<FormState> {
   try {
     const { user } = await signedIn();
-    const parsed = profileNameSchema.safeParse(formFields(formData));
-    if (!parsed.success) return invalidState(parsed.error);
+    const fields = formFields(formData);
+    const parsed = profileNameSchema.safeParse(fields);
+    if (!parsed.success) return keepValues(invalidState(parsed.error), { name: fields.name });
     await renameUser({ userId: user.id, name: parsed.data.name }, await requestMeta());
     revalidatePath("/", "layout");
-    return { ok: true, message: "Name saved." };
+    return { ok: true, message: "Name saved.", values: { name: parsed.data.name } };
   } catch (err) {
     return stateFromError(err);
   }
@@ -59,8 +60,9 @@ export async function notificationsAction(_prev: FormState, formData: FormData):
 export async function createTokenAction(_prev: FormState, formData: FormData): Promise<FormState> {
   try {
     const { user } = await signedIn();
-    const parsed = createTokenSchema.safeParse(formFields(formData));
-    if (!parsed.success) return invalidState(parsed.error);
+    const fields = formFields(formData);
+    const parsed = createTokenSchema.safeParse(fields);
+    if (!parsed.success) return keepValues(invalidState(parsed.error), { name: fields.name });
     const { ip } = await requestMeta();
     const { token } = await createApiToken({ userId: user.id, name: parsed.data.name, ip });
     revalidatePath("/profile");

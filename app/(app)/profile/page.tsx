@@ -82,14 +82,14 @@ export default async function ProfilePage() {
               <tbody>
                 {tokens.map((t) => (
                   <Tr key={t.id}>
-                    <Td className="font-medium">{t.name}</Td>
-                    <Td numeric className="text-left">
+                    <Td className="whitespace-nowrap font-medium">{t.name}</Td>
+                    <Td className="num whitespace-nowrap font-mono text-[13px]">
                       {t.tokenPrefix}…
                     </Td>
-                    <Td numeric className="text-left">
+                    <Td className="num whitespace-nowrap font-mono text-[13px]">
                       {formatUtc(t.createdAt)}
                     </Td>
-                    <Td numeric className="text-left">
+                    <Td className="num whitespace-nowrap font-mono text-[13px]">
                       {t.lastUsedAt ? formatUtc(t.lastUsedAt) : "never"}
                     </Td>
                     <Td>

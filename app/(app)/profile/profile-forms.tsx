@@ -17,7 +17,7 @@ export function NameForm({ name }: NameFormProps) {
     <form action={action} className="space-y-3" noValidate>
       <FormMessage message={state.message} tone={state.ok ? "success" : "error"} />
       <Field id="profile-name" label="Name" errors={state.errors?.name}>
-        <Input id="profile-name" name="name" defaultValue={name} autoComplete="name" required aria-describedby={describedBy("profile-name")} aria-invalid={Boolean(state.errors?.name)} />
+        <Input id="profile-name" name="name" defaultValue={state.values?.name ?? name} autoComplete="name" required aria-describedby={describedBy("profile-name")} aria-invalid={Boolean(state.errors?.name)} />
       </Field>
       <Button type="submit" variant="secondary" disabled={pending}>
         {pending ? "Saving…" : "Save name"}
@@ -100,7 +100,7 @@ export function CreateTokenForm() {
       ) : null}
       <div className="grid gap-3 sm:grid-cols-[1fr_auto] sm:items-end">
         <Field id="token-name" label="Token name" hint="After the script or bench that will use it, e.g. “bench 3 capture script”." errors={state.errors?.name}>
-          <Input id="token-name" name="name" required maxLength={60} aria-describedby={describedBy("token-name")} aria-invalid={Boolean(state.errors?.name)} />
+          <Input id="token-name" name="name" defaultValue={state.ok ? "" : state.values?.name} required maxLength={60} aria-describedby={describedBy("token-name")} aria-invalid={Boolean(state.errors?.name)} />
         </Field>
         <div className="sm:pb-[2.6rem]">
           <Button type="submit" disabled={pending}>

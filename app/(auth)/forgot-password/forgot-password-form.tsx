@@ -17,6 +17,7 @@ export function ForgotPasswordForm() {
           name="email"
           type="email"
           autoComplete="username"
+          defaultValue={state.values?.email}
           required
           autoFocus
           aria-describedby={describedBy("email")}

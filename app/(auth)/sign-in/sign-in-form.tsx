@@ -23,6 +23,7 @@ export function SignInForm({ next }: SignInFormProps) {
           name="email"
           type="email"
           autoComplete="username"
+          defaultValue={state.values?.email}
           required
           autoFocus
           aria-describedby={describedBy("email")}

@@ -20,7 +20,7 @@ export function AcceptInvitationForm({ token, email }: AcceptInvitationFormProps
       <input type="hidden" name="token" value={token} />
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
       <Field id="name" label="Your name" hint="As your team will see it on builds, runs and reviews." errors={state.errors?.name}>
-        <Input id="name" name="name" autoComplete="name" required autoFocus aria-describedby={describedBy("name")} aria-invalid={Boolean(state.errors?.name)} />
+        <Input id="name" name="name" autoComplete="name" defaultValue={state.values?.name} required autoFocus aria-describedby={describedBy("name")} aria-invalid={Boolean(state.errors?.name)} />
       </Field>
       <NewPasswordFields errors={state.errors} />
       <Button type="submit" disabled={pending}>
