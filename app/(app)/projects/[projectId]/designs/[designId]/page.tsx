@@ -1,0 +1,262 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { BUILD_KIND_NAMES, buildBadge } from "@/components/logbook/build-status";
+import { CreatePanel } from "@/components/logbook/create-panel";
+import { draftFromRevision } from "@/components/logbook/design-draft";
+import { DesignForm } from "@/components/logbook/design-form";
+import { designOfRevision, predictedHzOf, specPhrases, TOPOLOGY_NAMES } from "@/components/logbook/design-model";
+import { PageNav } from "@/components/logbook/page-nav";
+import { PartsTable } from "@/components/logbook/parts-table";
+import { PredictionPanel } from "@/components/logbook/prediction-panel";
+import { isRowId } from "@/components/logbook/route-ids";
+import { SortableTable, type SortableRow } from "@/components/logbook/sortable-table";
+import { buttonVariants } from "@/components/ui/button";
+import { Card, CardBody, CardHeader } from "@/components/ui/card";
+import { EmptyState } from "@/components/ui/empty-state";
+import { PageHeader } from "@/components/ui/page-header";
+import { VerdictBadge } from "@/components/ui/verdict-badge";
+import { listBuilds, type BuildSummary } from "@/db/queries/builds";
+import { getDesign, listDesignRevisions } from "@/db/queries/designs";
+import type { Page } from "@/db/queries/pagination";
+import { requireUser } from "@/lib/auth/current-user";
+import { can } from "@/lib/auth/permissions";
+import { BadRequestError } from "@/lib/errors";
+import { formatDate, formatDateTime } from "@/lib/format/dates";
+import { formatDrift, formatQuantity } from "@/lib/format/numbers";
+import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
+
+type Props = {
+  params: Promise<{ projectId: string; designId: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+};
+
+function one(value: string | string[] | undefined): string | undefined {
+  const v = Array.isArray(value) ? value[0] : value;
+  return v && v.trim() !== "" ? v.trim() : undefined;
+}
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  const { designId } = await params;
+  const design = isRowId(designId) ? await getDesign(designId) : null;
+  return { title: design?.name ?? "Design" };
+}
+
+export default async function DesignPage({ params, searchParams }: Props) {
+  const { projectId, designId } = await params;
+  const user = await requireUser(`/projects/${projectId}/designs/${designId}`);
+  if (!isRowId(projectId) || !isRowId(designId)) notFound();
+  const search = await searchParams;
+  const cursor = one(search.cursor);
+
+  const design = await getDesign(designId);
+  if (!design || design.projectId !== projectId) notFound();
+  let builds: Page<BuildSummary>;
+  try {
+    builds = await listBuilds(designId, { cursor, limit: 25 });
+  } catch (err) {
+    if (!(err instanceof BadRequestError)) throw err;
+    builds = await listBuilds(designId, { limit: 25 });
+  }
+  const revisions = await listDesignRevisions(designId);
+
+  const base = `/projects/${projectId}/designs/${designId}`;
+  const rev = design.revision;
+  const model = designOfRevision(design.topology, rev);
+  let report: DesignReport | null = null;
+  let predictionError: string | null = null;
+  try {
+    report = buildDesignReport(model);
+  } catch (err) {
+    predictionError = err instanceof Error ? err.message : "The model refused these values.";
+  }
+  const spec = specPhrases(rev.spec);
+  const canEdit = can(user.role, "design:write");
+  const canBuild = can(user.role, "build:create");
+
+  const rows: SortableRow[] = builds.items.map((b) => {
+    const badge = buildBadge(b.status, b.latestRun);
+    const drift = formatDrift(b.latestRun?.driftPpm);
+    return {
+      key: b.id,
+      cells: {
+        label: (
+          <Link href={`/builds/${b.id}`} className="font-medium text-ink underline-offset-2 hover:text-copper hover:underline">
+            {b.label}
+          </Link>
+        ),
+        kind: `${BUILD_KIND_NAMES[b.kind] ?? b.kind}${b.kindRevision ? ` ${b.kindRevision}` : ""}`,
+        state: <VerdictBadge verdict={badge.verdict} label={badge.label} />,
+        builtBy: b.builtByName,
+        runs: b.runCount,
+        measured: formatQuantity(b.latestRun?.measuredHz, "Hz", 6),
+        drift: drift.ppm,
+        created: formatDate(b.createdAt),
+      },
+      sort: {
+        label: b.label,
+        kind: b.kind,
+        state: badge.label ?? badge.verdict,
+        builtBy: b.builtByName,
+        runs: b.runCount,
+        measured: b.latestRun?.measuredHz ?? null,
+        drift: b.latestRun?.driftPpm ?? null,
+        created: new Date(b.createdAt).getTime(),
+      },
+    };
+  });
+
+  return (
+    <>
+      <PageHeader
+        eyebrow={
+          <Breadcrumbs
+            items={[
+              { label: "Projects", href: "/projects" },
+              { label: design.projectName, href: `/projects/${projectId}` },
+              { label: design.name },
+            ]}
+          />
+        }
+        title={design.name}
+        description={`${TOPOLOGY_NAMES[design.topology]} · revision ${design.currentRevision} · updated ${formatDateTime(design.updatedAt)}`}
+        actions={
+          <>
+            {canBuild ? (
+              <a href="#builds" className={buttonVariants({ variant: "secondary" })}>
+                Builds ({builds.items.length}
+                {builds.nextCursor ? "+" : ""})
+              </a>
+            ) : null}
+            {canEdit ? (
+              <Link href={`${base}/edit`} className={buttonVariants({ variant: "primary" })}>
+                Edit design
+              </Link>
+            ) : null}
+          </>
+        }
+      />
+
+      <div className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_22rem]">
+        <div className="min-w-0 space-y-5">
+          <section aria-labelledby="parts-heading" className="space-y-2">
+            <h2 id="parts-heading" className="text-sm font-semibold text-ink">
+              Parts (revision {rev.revision})
+            </h2>
+            <PartsTable topology={design.topology} parts={rev.parts} caption={`Parts of ${design.name}`} />
+            {rev.extraCapacitanceF ? (
+              <p className="text-xs text-ink-soft">
+                Known extra capacitance {formatQuantity(rev.extraCapacitanceF, "F", 3, { trimZeros: true })} in parallel with the tank.
+              </p>
+            ) : null}
+          </section>
+          <Card>
+            <CardHeader title="Spec" description="Runs of this design's builds are judged against these limits." />
+            <CardBody>
+              {spec.length > 0 ? (
+                <ul className="flex flex-wrap gap-2">
+                  {spec.map((s) => (
+                    <li key={s} className="num rounded-md border border-rule bg-paper px-2 py-1 font-mono text-[13px] text-ink">
+                      {s}
+                    </li>
+                  ))}
+                </ul>
+              ) : (
+                <p className="text-sm text-ink-soft">
+                  No limits set yet, so runs get no verdict.
+                  {canEdit ? (
+                    <>
+                      {" "}
+                      <Link className="text-copper underline underline-offset-2" href={`${base}/edit`}>
+                        Add a spec
+                      </Link>
+                      : target frequency and tolerance, THD, harmonics, amplitude.
+                    </>
+                  ) : null}
+                </p>
+              )}
+            </CardBody>
+          </Card>
+        </div>
+        <aside aria-label="Prediction" className="min-w-0">
+          <Card>
+            <CardHeader title="Prediction" description="From the nominal values and tolerances of this revision." />
+            <CardBody>{report ? <PredictionPanel report={report} /> : <p className="text-sm text-verdict-fail">{predictionError}</p>}</CardBody>
+          </Card>
+        </aside>
+      </div>
+
+      <div className="mt-5">
+        <CreatePanel title="Try other values (what-if)">
+          <DesignForm mode="whatif" initialDraft={draftFromRevision(design.name, design.topology, rev)} cancelHref={canEdit ? `${base}/edit` : undefined} />
+        </CreatePanel>
+      </div>
+
+      <section id="builds" aria-labelledby="builds-heading" className="mt-8 scroll-mt-4">
+        <h2 id="builds-heading" className="mb-2 text-base font-semibold text-ink">
+          Builds
+        </h2>
+        {builds.items.length === 0 ? (
+          <EmptyState title="No builds of this design yet">
+            {canBuild
+              ? "Create a build when a prototype is on the bench; then log its tweaks and upload a capture after each one."
+              : "Technicians add builds when a prototype is on the bench."}
+          </EmptyState>
+        ) : (
+          <>
+            <SortableTable
+              caption={`Builds of ${design.name}`}
+              columns={[
+                { key: "label", label: "Build" },
+                { key: "kind", label: "Kind", className: "hidden sm:table-cell" },
+                { key: "state", label: "State" },
+                { key: "builtBy", label: "Built by", className: "hidden md:table-cell" },
+                { key: "runs", label: "Runs", numeric: true },
+                { key: "measured", label: "Latest f", numeric: true },
+                { key: "drift", label: "Drift", numeric: true, className: "hidden sm:table-cell" },
+                { key: "created", label: "Created", numeric: true, className: "hidden md:table-cell" },
+              ]}
+              rows={rows}
+            />
+            <PageNav basePath={base} params={{}} nextCursor={builds.nextCursor} hasCursor={Boolean(cursor)} shown={builds.items.length} noun="builds" />
+          </>
+        )}
+      </section>
+
+      <section aria-labelledby="history-heading" className="mt-8">
+        <h2 id="history-heading" className="mb-2 text-base font-semibold text-ink">
+          Revision history
+        </h2>
+        <ol className="space-y-2">
+          {revisions.map((r) => {
+            const f0 = predictedHzOf(designOfRevision(design.topology, r));
+            return (
+              <li key={r.id} className="rounded-lg border border-rule bg-paper-raised">
+                <details>
+                  <summary className="flex cursor-pointer flex-wrap items-baseline gap-x-3 gap-y-1 px-4 py-2.5 text-sm">
+                    <span className="num font-mono font-semibold text-ink">r{r.revision}</span>
+                    {r.revision === design.currentRevision ? (
+                      <span className="rounded bg-copper-light px-1.5 py-px text-xs font-medium text-copper-dark">current</span>
+                    ) : null}
+                    <span className="num font-mono text-[13px] text-ink">f0 {formatQuantity(f0, "Hz", 5)}</span>
+                    <span className="text-ink-soft">{r.changeNote || (r.revision === 1 ? "First revision" : "No note")}</span>
+                    <span className="ml-auto text-xs text-ink-faint">
+                      {formatDateTime(r.createdAt)} · {r.createdByName}
+                    </span>
+                  </summary>
+                  <div className="space-y-2 border-t border-rule px-4 py-3">
+                    <PartsTable topology={design.topology} parts={r.parts} caption={`Parts of revision ${r.revision}`} />
+                    {specPhrases(r.spec).length > 0 ? (
+                      <p className="text-xs text-ink-soft">Spec: {specPhrases(r.spec).join(" · ")}</p>
+                    ) : null}
+                  </div>
+                </details>
+              </li>
+            );
+          })}
+        </ol>
+      </section>
+    </>
+  );
+}

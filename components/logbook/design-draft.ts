@@ -1,0 +1,157 @@
+/**
+ * The design form's text fields, and the live preview computed from them in the browser with the same schema the
+ * server action uses (lib/validations/design.ts) and the same model (lib/oscillator), so what the form shows
+ * while typing is what the server will store and predict.
+ */
+import type { DesignRevision } from "@/db/queries/designs";
+import { designInputSchema, type DesignInput } from "@/lib/validations/design";
+import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
+import { TOPOLOGY_PARTS, partUnit, type Topology } from "@/lib/oscillator/design";
+import { formatEngineering } from "@/lib/oscillator/units";
+
+export interface PartDraft {
+  value: string;
+  tolerance: string;
+  tempco: string;
+}
+
+export interface SpecDraft {
+  targetHz: string;
+  toleranceValue: string;
+  toleranceUnit: "percent" | "ppm";
+  maxThdPercent: string;
+  maxHarmonicDbc: string;
+  minFundamentalVpk: string;
+  maxDriftPpm: string;
+}
+
+export interface DesignDraft {
+  name: string;
+  topology: Topology;
+  parts: Record<string, PartDraft>;
+  extraCapacitance: string;
+  windings: "" | "aiding" | "opposing";
+  spec: SpecDraft;
+  changeNote: string;
+}
+
+export const EMPTY_SPEC: SpecDraft = {
+  targetHz: "",
+  toleranceValue: "",
+  toleranceUnit: "percent",
+  maxThdPercent: "",
+  maxHarmonicDbc: "",
+  minFundamentalVpk: "",
+  maxDriftPpm: "",
+};
+
+/** A blank draft of a topology: every part the topology takes, empty. */
+export function emptyDraft(topology: Topology): DesignDraft {
+  return {
+    name: "",
+    topology,
+    parts: Object.fromEntries(Object.keys(TOPOLOGY_PARTS[topology]).map((ref) => [ref, { value: "", tolerance: "", tempco: "" }])),
+    extraCapacitance: "",
+    windings: "",
+    spec: { ...EMPTY_SPEC },
+    changeNote: "",
+  };
+}
+
+/** Keeps the values of parts both topologies share (L, C1, C2…) when the topology changes. */
+export function switchTopology(draft: DesignDraft, topology: Topology): DesignDraft {
+  const next = emptyDraft(topology);
+  for (const ref of Object.keys(next.parts)) if (draft.parts[ref]) next.parts[ref] = { ...draft.parts[ref] };
+  return { ...next, name: draft.name, extraCapacitance: draft.extraCapacitance, spec: draft.spec, changeNote: draft.changeNote, windings: topology === "hartley" ? draft.windings : "" };
+}
+
+function plain(value: number | null | undefined): string {
+  return typeof value === "number" && Number.isFinite(value) ? String(value) : "";
+}
+
+function tempcoText(ppmPerK: number | undefined, spread: number | undefined): string {
+  if (ppmPerK === undefined && !spread) return "";
+  const nominal = ppmPerK ?? 0;
+  const sign = nominal > 0 ? "+" : "";
+  return spread ? `${sign}${nominal} ± ${spread} ppm/K` : `${sign}${nominal} ppm/K`;
+}
+
+/** A stored revision as form text, in forms the parsers read back to the same numbers. */
+export function draftFromRevision(name: string, topology: Topology, revision: Pick<DesignRevision, "parts" | "extraCapacitanceF" | "windings" | "spec">): DesignDraft {
+  const draft = emptyDraft(topology);
+  draft.name = name;
+  for (const [ref, part] of Object.entries(revision.parts)) {
+    const unit = ref in TOPOLOGY_PARTS[topology] ? partUnit(topology, ref) : "";
+    draft.parts[ref] = {
+      value: unit === "" ? String(part.valueSi) : formatEngineering(part.valueSi, unit, 6, { trimZeros: true }),
+      tolerance: part.tolerance ? `${Number((part.tolerance * 100).toPrecision(6))}%` : "",
+      tempco: tempcoText(part.tempcoPpmPerK, part.tempcoSpreadPpmPerK),
+    };
+  }
+  draft.extraCapacitance = revision.extraCapacitanceF ? formatEngineering(revision.extraCapacitanceF, "F", 6, { trimZeros: true }) : "";
+  draft.windings = revision.windings ?? "";
+  const s = revision.spec ?? {};
+  draft.spec = {
+    targetHz: typeof s.targetHz === "number" ? formatEngineering(s.targetHz, "Hz", 9, { trimZeros: true }) : "",
+    toleranceValue: plain(s.toleranceValue),
+    toleranceUnit: s.toleranceUnit === "ppm" ? "ppm" : "percent",
+    maxThdPercent: plain(s.maxThdPercent),
+    maxHarmonicDbc: plain(s.maxHarmonicDbc),
+    minFundamentalVpk: plain(s.minFundamentalVpk),
+    maxDriftPpm: plain(s.maxDriftPpm),
+  };
+  return draft;
+}
+
+/** The form fields as the server action receives them: dotted names mirroring the schema's paths. */
+export function draftFields(draft: DesignDraft): Array<[string, string]> {
+  const out: Array<[string, string]> = [
+    ["name", draft.name],
+    ["topology", draft.topology],
+    ["extraCapacitance", draft.extraCapacitance],
+    ["windings", draft.windings],
+    ["changeNote", draft.changeNote],
+  ];
+  for (const [ref, p] of Object.entries(draft.parts)) {
+    out.push([`parts.${ref}.value`, p.value], [`parts.${ref}.tolerance`, p.tolerance], [`parts.${ref}.tempco`, p.tempco]);
+  }
+  for (const [k, v] of Object.entries(draft.spec)) out.push([`spec.${k}`, v]);
+  return out;
+}
+
+export type DesignPreview =
+  | { ok: true; input: DesignInput; report: DesignReport }
+  | { ok: false; problems: Record<string, string[]>; incomplete: boolean };
+
+/**
+ * Checks the draft with the server's schema and, when it is a valid design, predicts it.
+ *
+ * @param draft - the form as typed; the name does not affect the prediction.
+ * @returns the report (f0, C_eff, L_eff, β, minimum gain, worst-case and statistical bands, assumptions), or the
+ *   problems keyed by dotted field path; `incomplete` is true when the only problems are required values not yet typed.
+ */
+export function previewDesign(draft: DesignDraft): DesignPreview {
+  const parsed = designInputSchema.safeParse({ ...draft, name: draft.name.trim() || "preview" });
+  if (!parsed.success) {
+    const problems: Record<string, string[]> = {};
+    let allMissing = true;
+    for (const issue of parsed.error.issues) {
+      const key = issue.path.map(String).join(".") || "form";
+      (problems[key] ??= []).push(issue.message);
+      if (!/^Enter the value of/.test(issue.message)) allMissing = false;
+    }
+    return { ok: false, problems, incomplete: allMissing };
+  }
+  try {
+    const input = parsed.data;
+    const report = buildDesignReport({
+      topology: input.topology,
+      parts: input.parts,
+      ...(input.extraCapacitanceF ? { extraCapacitanceF: input.extraCapacitanceF } : {}),
+      ...(input.windings ? { windings: input.windings } : {}),
+    });
+    return { ok: true, input, report };
+  } catch (err) {
+    return { ok: false, problems: { parts: [err instanceof Error ? err.message : "The model refused these values."] }, incomplete: false };
+  }
+}

@@ -1,0 +1,381 @@
+"use client";
+
+import Link from "next/link";
+import { useActionState, useDeferredValue, useMemo, useState } from "react";
+import { Button } from "@/components/ui/button";
+import { Card, CardBody, CardHeader } from "@/components/ui/card";
+import { Field, FormMessage, Input, Select, Textarea, describedBy } from "@/components/ui/field";
+import type { FormState } from "@/lib/auth/action-state";
+import { TOPOLOGIES, TOPOLOGY_PARTS, type Topology } from "@/lib/oscillator/design";
+import { formatQuantity } from "@/lib/format/numbers";
+import { cn } from "@/lib/utils";
+import { EMISSIONS_SAFETY_NOTE, SPEC_PRESETS, type SpecPreset } from "@/lib/spec/presets";
+import { TOPOLOGY_NAMES } from "./design-model";
+import { previewDesign, switchTopology, type DesignDraft, type PartDraft, type SpecDraft } from "./design-draft";
+import { PredictionPanel } from "./prediction-panel";
+
+export interface DesignFormProps {
+  /** The server action that saves; not used in "whatif" mode. */
+  action?: (state: FormState, formData: FormData) => Promise<FormState>;
+  initialDraft: DesignDraft;
+  /** Editing keeps the topology (a new topology is a new design); "whatif" only predicts and saves nothing. */
+  mode: "create" | "edit" | "whatif";
+  cancelHref?: string;
+}
+
+async function saveNothing(state: FormState): Promise<FormState> {
+  return state;
+}
+
+const UNIT_WORD = { inductance: "H", capacitance: "F", coupling: "" } as const;
+
+/** A preset's fields as form text; the target frequency always stays the engineer's. */
+function applyPreset(spec: SpecDraft, preset: SpecPreset): SpecDraft {
+  const next = { ...spec };
+  const p = preset.spec;
+  if (typeof p.maxHarmonicDbc === "number") next.maxHarmonicDbc = String(p.maxHarmonicDbc);
+  if (typeof p.maxThdPercent === "number") next.maxThdPercent = String(p.maxThdPercent);
+  if (typeof p.toleranceValue === "number") next.toleranceValue = String(p.toleranceValue);
+  if (p.toleranceUnit) next.toleranceUnit = p.toleranceUnit;
+  return next;
+}
+
+/**
+ * Create or edit a design. The prediction beside the form is recomputed as values are typed, in the browser, with
+ * the server's own schema and model; saving an edit makes a new revision.
+ */
+export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFormProps) {
+  const whatIf = mode === "whatif";
+  const [state, formAction, pending] = useActionState(action ?? saveNothing, {} as FormState);
+  const [draft, setDraft] = useState<DesignDraft>(initialDraft);
+  const deferred = useDeferredValue(draft);
+  const preview = useMemo(() => previewDesign(deferred), [deferred]);
+  const problems = preview.ok ? {} : preview.problems;
+  const serverErrors = state.errors ?? {};
+
+  /** Server errors always show; live problems only once the field has something in it. */
+  function errorsFor(path: string, text: string): string[] | undefined {
+    const server = serverErrors[path];
+    if (server?.length) return server;
+    if (text.trim() === "") return undefined;
+    return problems[path];
+  }
+
+  const setPart = (ref: string, patch: Partial<PartDraft>) =>
+    setDraft((d) => ({ ...d, parts: { ...d.parts, [ref]: { ...d.parts[ref], ...patch } } }));
+  const setSpec = (patch: Partial<SpecDraft>) => setDraft((d) => ({ ...d, spec: { ...d.spec, ...patch } }));
+  const roles = TOPOLOGY_PARTS[draft.topology];
+  const generalPartErrors = [...(serverErrors.parts ?? []), ...(preview.ok ? [] : (problems.parts ?? []))];
+
+  const summary = preview.ok ? (
+    <p className="num font-mono text-sm text-ink">
+      f0 = <strong>{formatQuantity(preview.report.predictedHz, "Hz", 6)}</strong>
+      <span className="text-ink-faint">
+        {" "}
+        ({formatQuantity(preview.report.worstCase.minHz, "Hz", 4)} – {formatQuantity(preview.report.worstCase.maxHz, "Hz", 4)} worst case)
+      </span>
+    </p>
+  ) : (
+    <p className="text-sm text-ink-faint">{preview.incomplete ? "Enter every required value to see the prediction." : "Fix the values marked to see the prediction."}</p>
+  );
+
+  return (
+    <form
+      action={whatIf ? undefined : formAction}
+      onSubmit={whatIf ? (e) => e.preventDefault() : undefined}
+      noValidate
+      aria-label={whatIf ? "Try other part values" : mode === "edit" ? "Edit the design" : "New design"}
+      className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_22rem]"
+    >
+      <div className="min-w-0 space-y-5">
+        <FormMessage message={state.message} tone={state.ok ? "success" : "error"} />
+        {whatIf ? (
+          <p className="text-sm text-ink-soft">
+            Change any value to see what the prediction would be. Nothing here is saved{" "}
+            {cancelHref ? "— edit the design to keep a change." : "."}
+          </p>
+        ) : null}
+        <Card className={whatIf ? "hidden" : undefined}>
+          <CardHeader title="Design" />
+          <CardBody className="grid gap-4 sm:grid-cols-2">
+            <Field id="design-name" label="Name" errors={serverErrors.name}>
+              <Input
+                id="design-name"
+                name="name"
+                value={draft.name}
+                maxLength={120}
+                onChange={(e) => setDraft((d) => ({ ...d, name: e.target.value }))}
+                aria-describedby={describedBy("design-name")}
+                aria-invalid={serverErrors.name ? true : undefined}
+              />
+            </Field>
+            <Field id="design-topology" label="Topology" errors={serverErrors.topology} hint={mode === "edit" ? "A different topology is a new design." : undefined}>
+              <Select
+                id="design-topology"
+                name="topology"
+                value={draft.topology}
+                disabled={mode === "edit"}
+                onChange={(e) => setDraft((d) => switchTopology(d, e.target.value as Topology))}
+                aria-describedby={describedBy("design-topology")}
+              >
+                {TOPOLOGIES.map((t) => (
+                  <option key={t} value={t}>
+                    {TOPOLOGY_NAMES[t]}
+                  </option>
+                ))}
+              </Select>
+              {mode === "edit" ? <input type="hidden" name="topology" value={draft.topology} /> : null}
+            </Field>
+          </CardBody>
+        </Card>
+
+        <Card>
+          <CardHeader
+            title="Parts"
+            description="Values in engineering notation or IEC 60062 codes (4n7, 4.7 nF, 10u, 2u2). Tolerance as 5 %, ±1 % or a letter (J, K). Tempco optional: C0G, N750, ±30 ppm/°C."
+          />
+          <CardBody className="space-y-4">
+            {generalPartErrors.length > 0 ? (
+              <div aria-live="polite">
+                {generalPartErrors.map((e) => (
+                  <p key={e} className="text-xs font-medium text-verdict-fail">
+                    {e}
+                  </p>
+                ))}
+              </div>
+            ) : null}
+            {Object.entries(roles).map(([ref, role]) => {
+              const part = draft.parts[ref] ?? { value: "", tolerance: "", tempco: "" };
+              const base = `part-${ref}`;
+              const unit = UNIT_WORD[role.kind];
+              return (
+                <fieldset key={ref} className="rounded-md border border-rule px-3 pb-3 pt-1">
+                  <legend className="px-1 text-sm">
+                    <span className="font-mono font-semibold text-ink">{ref}</span>{" "}
+                    <span className="text-ink-soft">
+                      {role.description}
+                      {role.required ? "" : " (optional)"}
+                    </span>
+                  </legend>
+                  <div className="grid gap-3 sm:grid-cols-3">
+                    <Field id={`${base}-value`} label={unit ? `Value (${unit})` : "Value"} errors={errorsFor(`parts.${ref}.value`, part.value)}>
+                      <Input
+                        id={`${base}-value`}
+                        name={`parts.${ref}.value`}
+                        value={part.value}
+                        autoComplete="off"
+                        spellCheck={false}
+                        placeholder={role.kind === "inductance" ? "e.g. 10u" : role.kind === "capacitance" ? "e.g. 4n7" : "0 to 1"}
+                        onChange={(e) => setPart(ref, { value: e.target.value })}
+                        aria-describedby={describedBy(`${base}-value`)}
+                        aria-invalid={errorsFor(`parts.${ref}.value`, part.value) ? true : undefined}
+                        className="num font-mono"
+                      />
+                    </Field>
+                    {role.kind === "coupling" ? null : (
+                      <>
+                        <Field id={`${base}-tol`} label="Tolerance" errors={errorsFor(`parts.${ref}.tolerance`, part.tolerance)}>
+                          <Input
+                            id={`${base}-tol`}
+                            name={`parts.${ref}.tolerance`}
+                            value={part.tolerance}
+                            autoComplete="off"
+                            placeholder="e.g. 5%"
+                            onChange={(e) => setPart(ref, { tolerance: e.target.value })}
+                            aria-describedby={describedBy(`${base}-tol`)}
+                            aria-invalid={errorsFor(`parts.${ref}.tolerance`, part.tolerance) ? true : undefined}
+                            className="num font-mono"
+                          />
+                        </Field>
+                        <Field id={`${base}-tempco`} label="Tempco" errors={errorsFor(`parts.${ref}.tempco`, part.tempco)}>
+                          <Input
+                            id={`${base}-tempco`}
+                            name={`parts.${ref}.tempco`}
+                            value={part.tempco}
+                            autoComplete="off"
+                            placeholder="optional"
+                            onChange={(e) => setPart(ref, { tempco: e.target.value })}
+                            aria-describedby={describedBy(`${base}-tempco`)}
+                            aria-invalid={errorsFor(`parts.${ref}.tempco`, part.tempco) ? true : undefined}
+                            className="num font-mono"
+                          />
+                        </Field>
+                      </>
+                    )}
+                  </div>
+                </fieldset>
+              );
+            })}
+            <div className="grid gap-3 sm:grid-cols-2">
+              <Field
+                id="design-extra"
+                label="Known extra capacitance (F)"
+                hint="Optional: probe input, trimmer or known stray, taken in parallel with the effective C."
+                errors={errorsFor("extraCapacitance", draft.extraCapacitance)}
+              >
+                <Input
+                  id="design-extra"
+                  name="extraCapacitance"
+                  value={draft.extraCapacitance}
+                  autoComplete="off"
+                  placeholder="e.g. 12p"
+                  onChange={(e) => setDraft((d) => ({ ...d, extraCapacitance: e.target.value }))}
+                  aria-describedby={describedBy("design-extra")}
+                  className="num font-mono"
+                />
+              </Field>
+              {draft.topology === "hartley" ? (
+                <Field id="design-windings" label="Windings" hint="Aiding for the usual tapped coil." errors={serverErrors.windings}>
+                  <Select
+                    id="design-windings"
+                    name="windings"
+                    value={draft.windings}
+                    onChange={(e) => setDraft((d) => ({ ...d, windings: e.target.value as DesignDraft["windings"] }))}
+                    aria-describedby={describedBy("design-windings")}
+                  >
+                    <option value="">Aiding (default)</option>
+                    <option value="aiding">Aiding</option>
+                    <option value="opposing">Opposing</option>
+                  </Select>
+                </Field>
+              ) : null}
+            </div>
+            <div aria-live="polite" className="rounded-md border border-dashed border-rule-strong bg-paper px-3 py-2 lg:hidden">
+              {summary}
+            </div>
+          </CardBody>
+        </Card>
+
+        {whatIf ? null : <SpecFields spec={draft.spec} setSpec={setSpec} errorsFor={errorsFor} />}
+
+        {whatIf ? null : mode === "edit" ? (
+          <Card>
+            <CardBody>
+              <Field id="design-note" label="What changed, and why" hint="Kept with the revision in the history." errors={serverErrors.changeNote}>
+                <Textarea
+                  id="design-note"
+                  name="changeNote"
+                  rows={2}
+                  value={draft.changeNote}
+                  maxLength={500}
+                  onChange={(e) => setDraft((d) => ({ ...d, changeNote: e.target.value }))}
+                  aria-describedby={describedBy("design-note")}
+                />
+              </Field>
+            </CardBody>
+          </Card>
+        ) : (
+          <input type="hidden" name="changeNote" value={draft.changeNote} />
+        )}
+
+        <div className={cn("flex flex-wrap items-center gap-3", whatIf && "hidden")}>
+          <Button type="submit" disabled={pending}>
+            {pending ? "Saving…" : mode === "edit" ? "Save as a new revision" : "Create design"}
+          </Button>
+          <Link href={cancelHref ?? "/projects"} className="text-sm font-medium text-ink-soft underline underline-offset-2 hover:text-ink">
+            Cancel
+          </Link>
+        </div>
+      </div>
+
+      <aside aria-label="Live prediction" className="min-w-0">
+        <Card className="lg:sticky lg:top-4">
+          <CardHeader title="Prediction" description="Updates as you type." />
+          <CardBody aria-live="polite">
+            {preview.ok ? <PredictionPanel report={preview.report} /> : summary}
+          </CardBody>
+        </Card>
+      </aside>
+    </form>
+  );
+}
+
+function SpecFields({
+  spec,
+  setSpec,
+  errorsFor,
+}: {
+  spec: SpecDraft;
+  setSpec: (patch: Partial<SpecDraft>) => void;
+  errorsFor: (path: string, text: string) => string[] | undefined;
+}) {
+  const text = (key: keyof SpecDraft, label: string, opts: { hint?: string; placeholder?: string } = {}) => {
+    const path = `spec.${key}`;
+    const id = `spec-${key}`;
+    const value = spec[key];
+    const errors = errorsFor(path, value);
+    return (
+      <Field id={id} label={label} hint={opts.hint} errors={errors}>
+        <Input
+          id={id}
+          name={path}
+          value={value}
+          inputMode={key === "targetHz" ? "text" : "decimal"}
+          autoComplete="off"
+          placeholder={opts.placeholder}
+          onChange={(e) => setSpec({ [key]: e.target.value } as Partial<SpecDraft>)}
+          aria-describedby={describedBy(id)}
+          aria-invalid={errors ? true : undefined}
+          className="num font-mono"
+        />
+      </Field>
+    );
+  };
+  return (
+    <Card>
+      <CardHeader title="Spec" description="Every limit is optional; runs are judged against the ones you set." />
+      <CardBody className="space-y-4">
+        <div className="grid gap-4 sm:grid-cols-2">
+          {text("targetHz", "Target frequency", { placeholder: "e.g. 412.3k or 1.5 MHz" })}
+          <div className="grid grid-cols-[1fr_auto] items-end gap-2">
+            {text("toleranceValue", "Frequency tolerance ±", { placeholder: "e.g. 0.5" })}
+            <div className="pb-[1.6rem]">
+              <label htmlFor="spec-toleranceUnit" className="sr-only">
+                Tolerance unit
+              </label>
+              <Select
+                id="spec-toleranceUnit"
+                name="spec.toleranceUnit"
+                value={spec.toleranceUnit}
+                onChange={(e) => setSpec({ toleranceUnit: e.target.value as SpecDraft["toleranceUnit"] })}
+                className="w-24"
+              >
+                <option value="percent">%</option>
+                <option value="ppm">ppm</option>
+              </Select>
+            </div>
+          </div>
+          {text("maxThdPercent", "Maximum THD (%)", { placeholder: "e.g. 1" })}
+          {text("maxHarmonicDbc", "Maximum single harmonic (dBc)", { hint: "0 or below: −40 means every harmonic 40 dB under the fundamental.", placeholder: "e.g. -40" })}
+          {text("minFundamentalVpk", "Minimum amplitude (V peak)", { placeholder: "e.g. 0.5" })}
+          {text("maxDriftPpm", "Maximum drift within one record (ppm)", { placeholder: "e.g. 50" })}
+        </div>
+        <div className="rounded-md border border-rule bg-paper px-3 py-3">
+          <p className="text-xs font-semibold text-ink">Example limits — pick one as a starting point, then adapt it</p>
+          <ul className="mt-2 grid gap-2 sm:grid-cols-2">
+            {SPEC_PRESETS.map((p) => (
+              <li key={p.id}>
+                <button
+                  type="button"
+                  onClick={() => setSpec(applyPreset(spec, p))}
+                  className="h-full w-full rounded-md border border-rule-strong bg-paper-raised px-2.5 py-1.5 text-left text-xs hover:border-copper"
+                >
+                  <span className="block font-semibold text-ink">
+                    <span className="sr-only">Use the example </span>
+                    {p.label}
+                    <span className="ml-1 rounded bg-paper-sunk px-1 py-px text-[10px] font-medium uppercase tracking-wide text-ink-soft">example</span>
+                  </span>
+                  <span className="block text-ink-soft">{p.summary}</span>
+                  <span className="block text-ink-faint">{p.basis === "law" ? `From ${p.basisNote}` : p.basisNote}</span>
+                </button>
+              </li>
+            ))}
+          </ul>
+          <p className="mt-3 text-xs leading-relaxed text-ink-soft">
+            <strong className="font-semibold text-ink">Safety.</strong> {EMISSIONS_SAFETY_NOTE}
+          </p>
+        </div>
+      </CardBody>
+    </Card>
+  );
+}
