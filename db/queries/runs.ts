@@ -1,6 +1,6 @@
 import type { Knex } from "knex";
 import type { Topology, WindingSense } from "@/lib/oscillator/design";
-import type { DesignSpec } from "@/lib/spec/types";
+import type { DesignSpec, SpecCheck } from "@/lib/spec/types";
 import type { Parts } from "./designs";
 import { db } from "../index";
 import { cursorColumn, paginate, toNumber, toPage, type Page, type PageRequest } from "./pagination";
@@ -67,6 +67,10 @@ export interface Run extends RunSummary {
   engineVersion: string | null;
   /** The engine's result object (the same fields `analyze --json` prints); null until done. */
   results: Record<string, unknown> | null;
+  /** Every spec check of the latest analysis, passed ones included; null until done. */
+  specChecks: SpecCheck[] | null;
+  /** Frequency change between the first and last thirds of the record, ppm; null when not measured. */
+  inRecordDriftPpm: number | null;
   attempts: number;
   updatedAt: Date;
   startedAt: Date | null;
@@ -92,6 +96,8 @@ interface RunRow {
   error: string | null;
   engine_version: string | null;
   results: Record<string, unknown> | null;
+  spec_checks: SpecCheck[] | null;
+  in_record_drift_ppm: number | null;
   measured_hz: number | null;
   frequency_uncertainty_hz: number | null;
   drift_ppm: number | null;
@@ -174,6 +180,8 @@ function toRun(row: RunRow): Run {
     snapshot: row.snapshot,
     engineVersion: row.engine_version,
     results: row.results,
+    specChecks: row.spec_checks,
+    inRecordDriftPpm: row.in_record_drift_ppm,
     attempts: row.attempts,
     updatedAt: row.updated_at,
     startedAt: row.started_at,
@@ -191,6 +199,8 @@ const detailColumns = [
   "r.snapshot",
   "r.engine_version",
   "r.results",
+  "r.spec_checks",
+  "r.in_record_drift_ppm",
   "r.attempts",
   "r.updated_at",
   "r.started_at",
@@ -312,6 +322,8 @@ export interface RunResultColumns {
   fundamentalVpk: number | null;
   thdPercent: number | null;
   worstHarmonicDbc: number | null;
+  inRecordDriftPpm: number | null;
+  specChecks: SpecCheck[];
   verdict: Verdict | null;
 }
 
@@ -336,6 +348,8 @@ export async function completeRun(id: string, attempt: number, r: RunResultColum
       fundamental_vpk: r.fundamentalVpk,
       thd_percent: r.thdPercent,
       worst_harmonic_dbc: r.worstHarmonicDbc,
+      in_record_drift_ppm: r.inRecordDriftPpm,
+      spec_checks: JSON.stringify(r.specChecks),
       verdict: r.verdict,
       finished_at: trx.fn.now(),
       updated_at: trx.fn.now(),
@@ -374,11 +388,21 @@ export async function resetRunForAnalysis(id: string, trx: Knex | Knex.Transacti
       fundamental_vpk: null,
       thd_percent: null,
       worst_harmonic_dbc: null,
+      in_record_drift_ppm: null,
+      spec_checks: null,
       verdict: null,
       started_at: null,
       finished_at: null,
       updated_at: trx.fn.now(),
     });
+  return count > 0;
+}
+
+/** Ends a run whose every attempt was lost (no attempt owns it any more). */
+export async function failAbandonedRun(id: string, error: string, trx: Knex | Knex.Transaction = db()): Promise<boolean> {
+  const count = await trx("runs")
+    .where({ id, status: "running" })
+    .update({ status: "failed", error, finished_at: trx.fn.now(), updated_at: trx.fn.now() });
   return count > 0;
 }
 

@@ -90,7 +90,11 @@ export async function createTweak(
   return (await getTweak(id, trx))!;
 }
 
-/** Marks a planned tweak as done (its values are applied by the caller in the same transaction). */
-export async function markTweakApplied(id: string, trx: Knex | Knex.Transaction = db()): Promise<boolean> {
-  return (await trx("tweaks").where({ id, planned: true }).update({ planned: false })) > 0;
+/**
+ * Marks a planned tweak as done (the caller applies its value to the build in the same transaction).
+ * @param fromValue the part's value just before, SI units
+ * @returns false when it was not planned (applied already)
+ */
+export async function markTweakApplied(id: string, fromValue: number | null, trx: Knex | Knex.Transaction = db()): Promise<boolean> {
+  return (await trx("tweaks").where({ id, planned: true }).update({ planned: false, from_value: fromValue })) > 0;
 }

@@ -1,0 +1,121 @@
+import { db } from "@/db/index";
+import { replaceRunFlags } from "@/db/queries/flags";
+import { claimRun, completeRun, failRun, getRun, type Run } from "@/db/queries/runs";
+import type { AnalysisResult } from "@/lib/analysis";
+import { impliedExtraCapacitanceF } from "@/lib/oscillator";
+import { evaluateSpec } from "@/lib/spec/evaluate";
+import type { AnalysisTaskInput, AnalysisTaskOutput } from "./analysis-task";
+
+/** What one job did with its run. */
+export type JobOutcome = "done" | "failed" | "skipped" | "superseded";
+
+export interface ProcessRunOptions {
+  /** Runs the analysis (normally on the worker-thread pool). */
+  analyse: (input: AnalysisTaskInput) => Promise<AnalysisTaskOutput>;
+  /** True on the queue's last attempt: a transient failure then ends the run as failed instead of retrying. */
+  lastAttempt: boolean;
+}
+
+/** Frequency and stray figures of a finished analysis against the run's snapshot. */
+export function derivedColumns(run: Pick<Run, "snapshot">, result: Pick<AnalysisResult, "frequencyHz">) {
+  const { predictedHz, lEffH, cEffF } = run.snapshot;
+  const driftPpm = predictedHz ? ((result.frequencyHz - predictedHz) / predictedHz) * 1e6 : null;
+  const stray = lEffH && cEffF && result.frequencyHz > 0 ? impliedExtraCapacitanceF(lEffH, cEffF, result.frequencyHz) : null;
+  return { driftPpm, impliedExtraCapacitanceF: stray };
+}
+
+function worstHarmonicDbc(result: AnalysisResult): number | null {
+  const levels = result.harmonics.map((h) => h.dBc).filter((v): v is number => v !== null && Number.isFinite(v));
+  return levels.length ? Math.max(...levels) : null;
+}
+
+// A test-only stretch of every job, so a test can kill a worker while it holds a job. Ignored outside tests.
+function testDelayMs(): number {
+  if (process.env.NODE_ENV !== "test") return 0;
+  const ms = Number(process.env.TANKBOOK_TEST_ANALYSIS_DELAY_MS ?? 0);
+  return Number.isFinite(ms) && ms > 0 ? ms : 0;
+}
+
+/**
+ * Analyses one run: claims it (a new attempt number), runs the engine, stores results, plot and the query
+ * columns, evaluates the spec of the run's snapshot and replaces its flags — or marks it failed with the
+ * importer's message. The raw capture is never touched.
+ *
+ * @returns what happened; throws only for a transient failure that the queue should retry
+ */
+export async function processRun(runId: string, options: ProcessRunOptions): Promise<JobOutcome> {
+  const run = await getRun(runId);
+  // Finished runs are only analysed again through a re-analysis, which sets them back to queued first.
+  if (!run || run.status === "done" || run.status === "failed") return "skipped";
+  const attempt = await claimRun(runId);
+  if (attempt === null) return "skipped";
+
+  let output: AnalysisTaskOutput;
+  try {
+    output = await options.analyse({
+      objectKey: run.objectKey,
+      sizeBytes: run.sizeBytes,
+      channel: run.channel,
+      measureInRecordDrift: typeof run.snapshot.spec?.maxDriftPpm === "number",
+    });
+    const delay = testDelayMs();
+    if (delay) await new Promise((resolve) => setTimeout(resolve, delay));
+  } catch (err) {
+    const message = err instanceof Error ? err.message : String(err);
+    if (!options.lastAttempt) throw err;
+    await failRun(runId, attempt, `The analysis could not finish after several attempts: ${message}. The capture is kept; re-analyse to try again.`, null);
+    return "failed";
+  }
+
+  if (!output.ok) {
+    const stored = await db().transaction(async (trx) => {
+      const ok = await failRun(runId, attempt, output.message, output.engineVersion, trx);
+      if (ok) await replaceRunFlags(runId, run.buildId, [], trx);
+      return ok;
+    });
+    return stored ? "failed" : "superseded";
+  }
+
+  const { result, plot } = output;
+  const evaluation = evaluateSpec(run.snapshot.spec ?? {}, {
+    frequencyHz: result.frequencyHz,
+    thdPercent: Number.isFinite(result.thdPercent) ? result.thdPercent : null,
+    harmonics: result.harmonics,
+    fundamentalVpk: result.fundamentalVpk,
+    inRecordDriftPpm: output.inRecordDriftPpm,
+    warnings: result.warnings,
+  });
+  const derived = derivedColumns(run, result);
+  const stored = await db().transaction(async (trx) => {
+    const ok = await completeRun(
+      runId,
+      attempt,
+      {
+        engineVersion: output.engineVersion,
+        results: result as unknown as Record<string, unknown>,
+        plot,
+        measuredHz: result.frequencyHz,
+        frequencyUncertaintyHz: result.frequencyUncertaintyHz,
+        driftPpm: derived.driftPpm,
+        impliedExtraCapacitanceF: derived.impliedExtraCapacitanceF,
+        fundamentalVpk: result.fundamentalVpk,
+        thdPercent: Number.isFinite(result.thdPercent) ? result.thdPercent : null,
+        worstHarmonicDbc: worstHarmonicDbc(result),
+        inRecordDriftPpm: output.inRecordDriftPpm,
+        specChecks: evaluation.checks,
+        verdict: evaluation.verdict,
+      },
+      trx,
+    );
+    if (ok) {
+      await replaceRunFlags(
+        runId,
+        run.buildId,
+        evaluation.checks.filter((c) => !c.passed).map(({ rule, measured, limit, margin, unit, message }) => ({ rule, measured, limit, margin, unit, message })),
+        trx,
+      );
+    }
+    return ok;
+  });
+  return stored ? "done" : "superseded";
+}

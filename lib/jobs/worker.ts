@@ -1,0 +1,96 @@
+import type PgBoss from "pg-boss";
+import { db } from "@/db/index";
+import { failAbandonedRun, listStaleUnfinishedRuns } from "@/db/queries/runs";
+import { jobSettings } from "./config";
+import { createAnalysisPool, type AnalysisPool } from "./pool";
+import { processRun } from "./process-run";
+import { ANALYSIS_QUEUE, enqueueAnalysis, hasPendingJob, startBoss, type AnalysisJobData } from "./queue";
+
+export interface AnalysisWorker {
+  /** Stops taking jobs, lets running ones finish (up to `timeoutMs`), then closes the pool and connections. */
+  stop(timeoutMs?: number): Promise<void>;
+}
+
+export interface WorkerOptions {
+  /** Concurrent jobs and analysis threads; default from ANALYSIS_THREADS. */
+  threads?: number;
+  /** Print one line per job (the standalone worker does). */
+  log?: (line: string) => void;
+}
+
+const SWEEP_EVERY_MS = 60_000;
+
+/**
+ * Looks for runs that were left behind: queued with no job (a job lost outside our transaction), or running
+ * with no job left (every attempt's worker died and the queue gave up). The first are queued again, the
+ * second marked failed so they can be re-analysed. Jobs still waiting or retrying are left alone.
+ */
+export async function sweepUnfinishedRuns(olderThanMs: number): Promise<{ requeued: number; failed: number }> {
+  const stale = await listStaleUnfinishedRuns(new Date(Date.now() - olderThanMs));
+  let requeued = 0;
+  let failed = 0;
+  for (const run of stale) {
+    if (await hasPendingJob(run.id, db())) continue;
+    if (run.status === "queued") {
+      await enqueueAnalysis(run.id);
+      requeued++;
+    } else {
+      const ended = await failAbandonedRun(
+        run.id,
+        "The analysis stopped without a result (its worker was lost on every attempt). The capture is kept; re-analyse to try again.",
+      );
+      if (ended) failed++;
+    }
+  }
+  return { requeued, failed };
+}
+
+/**
+ * Starts an analysis worker in this process: pg-boss fetches jobs (one per run id at a time, across every
+ * worker on every machine), each job's analysis runs on a piscina thread, results go to PostgreSQL.
+ * Maintenance in pg-boss re-queues jobs whose worker died (after ANALYSIS_JOB_TIMEOUT_SECONDS).
+ */
+export async function startAnalysisWorker(options: WorkerOptions = {}): Promise<AnalysisWorker> {
+  const settings = jobSettings();
+  const threads = options.threads ?? settings.threads;
+  const log = options.log ?? (() => undefined);
+  const boss: PgBoss = await startBoss({ supervise: true, poolMax: threads + 2 });
+  const pool: AnalysisPool = createAnalysisPool(threads);
+
+  for (let i = 0; i < threads; i++) {
+    await boss.work<AnalysisJobData>(
+      ANALYSIS_QUEUE,
+      { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: settings.pollSeconds },
+      async ([job]) => {
+        const started = Date.now();
+        const outcome = await processRun(job.data.runId, {
+          analyse: (input) => pool.run(input),
+          lastAttempt: job.retryCount >= job.retryLimit,
+        });
+        log(`run ${job.data.runId}: ${outcome} in ${Date.now() - started} ms (attempt ${job.retryCount + 1})`);
+        return { outcome };
+      },
+    );
+  }
+
+  const sweepAfterMs = (settings.jobTimeoutSeconds + 60) * 1000;
+  const sweep = setInterval(() => {
+    sweepUnfinishedRuns(sweepAfterMs)
+      .then((r) => {
+        if (r.requeued || r.failed) log(`sweep: ${r.requeued} queued again, ${r.failed} marked failed`);
+      })
+      .catch((err) => log(`sweep failed: ${err instanceof Error ? err.message : String(err)}`));
+  }, SWEEP_EVERY_MS);
+  sweep.unref();
+
+  let stopped = false;
+  return {
+    async stop(timeoutMs = 30_000) {
+      if (stopped) return;
+      stopped = true;
+      clearInterval(sweep);
+      await boss.stop({ graceful: true, wait: true, timeout: timeoutMs });
+      await pool.destroy();
+    },
+  };
+}

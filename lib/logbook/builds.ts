@@ -1,0 +1,127 @@
+import { db } from "@/db/index";
+import * as q from "@/db/queries/builds";
+import { getDesign } from "@/db/queries/designs";
+import { listBuildFlags } from "@/db/queries/flags";
+import { listRuns, type RunFilter } from "@/db/queries/runs";
+import { listTweaks } from "@/db/queries/tweaks";
+import { getUserById } from "@/db/queries/users";
+import { requirePermission } from "@/lib/auth/require-permission";
+import type { CurrentUser } from "@/lib/auth/current-user-type";
+import { BadRequestError, NotFoundError } from "@/lib/errors";
+import type { BuildInput } from "@/lib/validations/build";
+import { audit, isId, uniqueOr, type Actor } from "./context";
+import { predictBuild } from "./prediction";
+
+async function checkBuilder(builtBy: string | undefined, fallback: string): Promise<string> {
+  if (!builtBy || builtBy === fallback) return fallback;
+  const person = await getUserById(builtBy);
+  if (!person || person.status !== "active") throw new BadRequestError("Pick someone from the team as the builder.", { builtBy: ["unknown person"] });
+  return person.id;
+}
+
+/**
+ * Starts a build of a design (technician and above); its as-built parts are the design's current values.
+ * @throws NotFoundError; ConflictError when the design already has a build with this label
+ */
+export async function createBuild(actor: Actor, designId: string, input: BuildInput): Promise<q.Build> {
+  const user = requirePermission(actor.user, "build:create");
+  const design = isId(designId) ? await getDesign(designId) : null;
+  if (!design) throw new NotFoundError("The design");
+  const builtBy = await checkBuilder(input.builtBy, user.id);
+  return uniqueOr(`This design already has a build labelled “${input.label}”.`, () =>
+    db().transaction(async (trx) => {
+      const build = await q.createBuild(
+        {
+          designId,
+          designRevisionId: design.revision.id,
+          label: input.label,
+          kind: input.kind,
+          kindRevision: input.kindRevision,
+          builtBy,
+          asBuilt: design.revision.parts,
+          createdBy: user.id,
+        },
+        trx,
+      );
+      await audit({ ...actor, user }, "build.created", { type: "build", id: build.id }, { designId, label: build.label, kind: build.kind }, trx);
+      return build;
+    }),
+  );
+}
+
+/** Changes a build's label, kind or builder (technician and above). */
+export async function updateBuild(
+  actor: Actor,
+  buildId: string,
+  patch: { label?: string; kind?: q.BuildKind; kindRevision?: string; builtBy?: string },
+): Promise<q.Build> {
+  const user = requirePermission(actor.user, "build:create");
+  if (!isId(buildId)) throw new NotFoundError("The build");
+  const builtBy = patch.builtBy ? await checkBuilder(patch.builtBy, user.id) : undefined;
+  return uniqueOr(`This design already has a build labelled “${patch.label}”.`, () =>
+    db().transaction(async (trx) => {
+      const build = await q.updateBuildDetails(buildId, { ...patch, builtBy }, trx);
+      if (!build) throw new NotFoundError("The build");
+      await audit({ ...actor, user }, "build.updated", { type: "build", id: buildId }, { ...patch }, trx);
+      return build;
+    }),
+  );
+}
+
+/** Accepts, rejects or reopens a build with a comment (engineer and above). */
+export async function reviewBuild(actor: Actor, buildId: string, review: { status: q.BuildStatus; comment?: string }): Promise<q.Build> {
+  const user = requirePermission(actor.user, "build:review");
+  if (!isId(buildId)) throw new NotFoundError("The build");
+  return db().transaction(async (trx) => {
+    const build = await q.updateBuildReview(
+      buildId,
+      { status: review.status, comment: review.comment ?? null, reviewedBy: review.status === "open" ? null : user.id },
+      trx,
+    );
+    if (!build) throw new NotFoundError("The build");
+    await audit({ ...actor, user }, `build.${review.status === "open" ? "reopened" : review.status}`, { type: "build", id: buildId }, { comment: review.comment ?? null }, trx);
+    return build;
+  });
+}
+
+/** @throws NotFoundError */
+export async function getBuild(user: CurrentUser | null, buildId: string): Promise<q.Build> {
+  requirePermission(user, "read");
+  const build = isId(buildId) ? await q.getBuild(buildId) : null;
+  if (!build) throw new NotFoundError("The build");
+  return build;
+}
+
+/** One entry of a build's history: a tweak or a run, in time order. */
+export type TimelineEntry =
+  | { kind: "tweak"; at: Date; tweak: Awaited<ReturnType<typeof listTweaks>>[number] }
+  | { kind: "run"; at: Date; run: Awaited<ReturnType<typeof listRuns>>["items"][number] };
+
+/**
+ * The build page: build, design, the prediction for its as-built values, its tweaks, a page of runs (newest
+ * first), the tweaks and those runs interleaved oldest first, its open flags and photos.
+ */
+export async function getBuildView(user: CurrentUser | null, buildId: string, runFilter: RunFilter = {}) {
+  const build = await getBuild(user, buildId);
+  const [design, tweaks, runs, flags, photos] = await Promise.all([
+    getDesign(build.designId),
+    listTweaks(buildId),
+    listRuns(buildId, { limit: 200, ...runFilter }),
+    listBuildFlags(buildId, { unacknowledgedOnly: true }),
+    q.listBuildPhotos(buildId),
+  ]);
+  if (!design) throw new NotFoundError("The design");
+  const { prediction, error } = predictBuild(build, design);
+  const timeline: TimelineEntry[] = [
+    ...tweaks.map((tweak) => ({ kind: "tweak" as const, at: tweak.createdAt, tweak })),
+    ...runs.items.map((run) => ({ kind: "run" as const, at: run.createdAt, run })),
+  ].sort((a, b) => a.at.getTime() - b.at.getTime());
+  return { build, design, prediction, predictionError: error, tweaks, runs, timeline, flags, photos };
+}
+
+/** A design's builds (for the API list). */
+export async function listDesignBuilds(user: CurrentUser | null, designId: string, filter: q.BuildFilter = {}) {
+  requirePermission(user, "read");
+  if (!isId(designId) || !(await getDesign(designId))) throw new NotFoundError("The design");
+  return q.listBuilds(designId, filter);
+}

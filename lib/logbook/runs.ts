@@ -1,0 +1,267 @@
+import { randomUUID } from "node:crypto";
+import type { Readable } from "node:stream";
+import { db } from "@/db/index";
+import { getBuild, getBuildForUpdate } from "@/db/queries/builds";
+import { getDesign } from "@/db/queries/designs";
+import { listRunFlags } from "@/db/queries/flags";
+import * as q from "@/db/queries/runs";
+import { getTweak } from "@/db/queries/tweaks";
+import { getIdempotentRunId, markUploadSlotCompleted, saveIdempotencyKey } from "@/db/queries/uploads";
+import { requirePermission } from "@/lib/auth/require-permission";
+import type { CurrentUser } from "@/lib/auth/current-user-type";
+import { BadRequestError, ConflictError, NotFoundError, PayloadTooLargeError } from "@/lib/errors";
+import { enqueueAnalysis } from "@/lib/jobs/queue";
+import { analyseDrift, type DriftAnalysis } from "@/lib/oscillator";
+import { captureObjectKey, deleteObject, headObject, presignGet, putObject } from "@/lib/storage";
+import type { RunMetadata } from "@/lib/validations/run";
+import { checkCaptureFile, checkCaptureSize, formatBytes, meterStream, sha256OfObject, uploadLimitBytes } from "./capture-files";
+import { audit, isId, type Actor } from "./context";
+import { oscillatorDesign, runSnapshot } from "./prediction";
+
+/** What registering a capture did: a new run, or the run already logged from the same file on this build. */
+export type RegisterOutcome = { kind: "created"; run: q.Run } | { kind: "duplicate"; existing: q.Run };
+
+export interface RegisterRunInput {
+  /** The run's id, chosen by the server when the object key was made. */
+  runId: string;
+  buildId: string;
+  objectKey: string;
+  /** As the user named it; shown only, never used as a key. */
+  originalFilename: string;
+  /** The size the upload announced; the stored object must match it. */
+  expectedSizeBytes?: number;
+  /** Already computed while streaming (API upload); otherwise computed here by streaming the object. */
+  sha256?: string;
+  meta: RunMetadata;
+  /** Idempotency-Key of the API request, saved with the run in one transaction. */
+  idempotencyKey?: string;
+  /** Upload slot to mark completed with the run. */
+  slotId?: string;
+  /** Back-dated time for the demo seed. */
+  createdAt?: Date;
+}
+
+class IdempotencyRace extends Error {}
+
+/**
+ * Records a capture already in storage as a run of a build, and queues its analysis (technician and above).
+ * Checks the object exists and its size, computes its SHA-256 by streaming it, and — in the one transaction that
+ * inserts the run — snapshots the build's as-built values with the predicted frequency, bands and spec, and
+ * inserts the analysis job. A file already logged on the build comes back as a duplicate unless
+ * `meta.keepDuplicate` asks for a second copy.
+ * @throws NotFoundError; BadRequestError (object missing, size mismatch, empty, bad tweak); PayloadTooLargeError
+ */
+export async function registerRun(actor: Actor, input: RegisterRunInput): Promise<RegisterOutcome> {
+  const user = requirePermission(actor.user, "run:upload");
+  const build = isId(input.buildId) ? await getBuild(input.buildId) : null;
+  if (!build) throw new NotFoundError("The build");
+  const info = await headObject(input.objectKey);
+  if (!info) throw new BadRequestError("The file has not arrived in storage yet: upload it first, then register it.", { file: ["not uploaded"] });
+  if (info.sizeBytes > uploadLimitBytes()) {
+    await deleteObject(input.objectKey);
+    checkCaptureSize(info.sizeBytes);
+  }
+  if (input.expectedSizeBytes !== undefined && info.sizeBytes !== input.expectedSizeBytes) {
+    throw new BadRequestError(`The stored file is ${formatBytes(info.sizeBytes)}, not the ${formatBytes(input.expectedSizeBytes)} announced; upload it again.`, {
+      file: ["size mismatch"],
+    });
+  }
+  if (info.sizeBytes === 0) throw new BadRequestError("The file is empty.", { file: ["empty"] });
+  const sha256 = input.sha256 ?? (await sha256OfObject(input.objectKey));
+
+  try {
+    return await db().transaction(async (trx): Promise<RegisterOutcome> => {
+      // Locking the build serialises uploads to it (the duplicate check holds) and freezes its parts for the snapshot.
+      const locked = await getBuildForUpdate(input.buildId, trx);
+      if (!locked) throw new NotFoundError("The build");
+      const already = await q.getRun(input.runId, trx);
+      if (already) return { kind: "created", run: already };
+      const design = await getDesign(locked.designId, trx);
+      if (!design) throw new NotFoundError("The design");
+      if (input.meta.tweakId) {
+        const tweak = await getTweak(input.meta.tweakId, trx);
+        if (!tweak || tweak.buildId !== locked.id) throw new BadRequestError("That tweak is not one of this build's.", { tweakId: ["not a tweak of this build"] });
+      }
+      const existing = await q.findDuplicateRun(locked.id, sha256, trx);
+      if (existing && !input.meta.keepDuplicate) return { kind: "duplicate", existing };
+
+      const run = await q.createRun(
+        {
+          id: input.runId,
+          buildId: locked.id,
+          designRevisionId: design.revision.id,
+          tweakId: input.meta.tweakId ?? null,
+          objectKey: input.objectKey,
+          sha256,
+          sizeBytes: info.sizeBytes,
+          originalFilename: input.originalFilename,
+          channel: input.meta.channel ?? null,
+          probeAttenuation: input.meta.probe,
+          supplyV: input.meta.supplyV ?? null,
+          temperatureC: input.meta.temperatureC ?? null,
+          note: input.meta.note,
+          snapshot: runSnapshot(locked, design),
+          duplicateOfRunId: existing?.id ?? null,
+          createdBy: user.id,
+          createdAt: input.createdAt,
+        },
+        trx,
+      );
+      if (input.idempotencyKey && !(await saveIdempotencyKey(user.id, input.idempotencyKey, run.id, trx))) throw new IdempotencyRace();
+      if (input.slotId) await markUploadSlotCompleted(input.slotId, trx);
+      await enqueueAnalysis(run.id, trx);
+      await audit(
+        { ...actor, user },
+        "run.uploaded",
+        { type: "run", id: run.id },
+        { buildId: locked.id, filename: input.originalFilename, sizeBytes: info.sizeBytes, sha256, duplicateOf: existing?.id ?? null },
+        trx,
+      );
+      return { kind: "created", run };
+    });
+  } catch (err) {
+    if (err instanceof IdempotencyRace && input.idempotencyKey) {
+      const firstId = await getIdempotentRunId(user.id, input.idempotencyKey);
+      const first = firstId ? await q.getRun(firstId) : null;
+      if (first) return { kind: "created", run: first };
+    }
+    throw err;
+  }
+}
+
+export interface StreamUploadInput {
+  buildId: string;
+  filename: string;
+  contentType: string | null;
+  stream: Readable;
+  meta: RunMetadata;
+  idempotencyKey?: string;
+}
+
+/** What a streamed upload did; `existing` is a retry answered with the first request's run. */
+export type StreamUploadOutcome = RegisterOutcome | { kind: "existing"; run: q.Run };
+
+/**
+ * The API's multipart path: streams the file to storage (multipart, 8 MiB parts) while hashing and counting it,
+ * so the file never sits in memory, then registers it like a presigned upload. A retry with the same
+ * Idempotency-Key returns the first run; a duplicate's object is removed again.
+ * @throws PayloadTooLargeError past UPLOAD_LIMIT_BYTES; UnsupportedMediaTypeError for a non-CSV; NotFoundError
+ */
+export async function uploadRunFromStream(actor: Actor, input: StreamUploadInput): Promise<StreamUploadOutcome> {
+  const user = requirePermission(actor.user, "run:upload");
+  const build = isId(input.buildId) ? await getBuild(input.buildId) : null;
+  if (!build) throw new NotFoundError("The build");
+  checkCaptureFile(input.filename, input.contentType);
+  if (input.idempotencyKey) {
+    const firstId = await getIdempotentRunId(user.id, input.idempotencyKey);
+    const first = firstId ? await q.getRun(firstId) : null;
+    if (first) {
+      input.stream.resume();
+      return { kind: "existing", run: first };
+    }
+  }
+  const runId = randomUUID();
+  const key = captureObjectKey(runId);
+  const metered = meterStream(input.stream, uploadLimitBytes());
+  try {
+    await putObject(key, metered.stream, "text/csv");
+  } catch (err) {
+    await deleteObject(key).catch(() => undefined);
+    input.stream.resume();
+    if (metered.tooLarge()) throw new PayloadTooLargeError(`The file is over the ${formatBytes(uploadLimitBytes())} capture limit.`);
+    throw err;
+  }
+  const { sha256, sizeBytes } = metered.result();
+  let outcome: RegisterOutcome;
+  try {
+    outcome = await registerRun(actor, {
+      runId,
+      buildId: build.id,
+      objectKey: key,
+      originalFilename: input.filename,
+      expectedSizeBytes: sizeBytes,
+      sha256,
+      meta: input.meta,
+      idempotencyKey: input.idempotencyKey,
+    });
+  } catch (err) {
+    await deleteObject(key).catch(() => undefined);
+    throw err;
+  }
+  if (outcome.kind === "duplicate" || outcome.run.id !== runId) await deleteObject(key).catch(() => undefined);
+  return outcome;
+}
+
+/**
+ * Queues a finished run for analysis again, e.g. after the engine improved (technician and above).
+ * @throws NotFoundError; ConflictError while it is queued or running
+ */
+export async function reanalyseRun(actor: Actor, runId: string): Promise<q.Run> {
+  const user = requirePermission(actor.user, "run:reanalyse");
+  const run = isId(runId) ? await q.getRun(runId) : null;
+  if (!run) throw new NotFoundError("The run");
+  const busy = () => new ConflictError("This run is being analysed already; its result will replace the current one.");
+  if (run.status === "queued" || run.status === "running") throw busy();
+  return db().transaction(async (trx) => {
+    if (!(await q.resetRunForAnalysis(runId, trx))) throw busy();
+    await enqueueAnalysis(runId, trx);
+    await audit(
+      { ...actor, user },
+      "run.reanalysis-requested",
+      { type: "run", id: runId },
+      { previousStatus: run.status, previousEngineVersion: run.engineVersion },
+      trx,
+    );
+    return (await q.getRun(runId, trx))!;
+  });
+}
+
+/** @throws NotFoundError */
+export async function getRun(user: CurrentUser | null, runId: string): Promise<q.Run> {
+  requirePermission(user, "read");
+  const run = isId(runId) ? await q.getRun(runId) : null;
+  if (!run) throw new NotFoundError("The run");
+  return run;
+}
+
+/** Measured against predicted, from the run's own snapshot; null until the run is analysed or without a prediction. */
+export function runDrift(run: q.Run): DriftAnalysis | null {
+  if (run.measuredHz === null || run.snapshot.predictedHz === null) return null;
+  try {
+    const s = run.snapshot;
+    return analyseDrift(oscillatorDesign(s.topology, s.parts, s.extraCapacitanceF, s.windings), run.measuredHz);
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * The run page: the run (snapshot and results), its build and design names, the tweak it follows, its flags,
+ * every spec check, and the drift explained from the snapshot.
+ */
+export async function getRunView(user: CurrentUser | null, runId: string) {
+  const run = await getRun(user, runId);
+  const [build, flags, tweak] = await Promise.all([getBuild(run.buildId), listRunFlags(runId), run.tweakId ? getTweak(run.tweakId) : null]);
+  if (!build) throw new NotFoundError("The build");
+  return { run, build, flags, tweak, checks: run.specChecks ?? [], drift: runDrift(run) };
+}
+
+/** A build's runs, newest first, filtered (for the API and the build page's table). */
+export async function listBuildRuns(user: CurrentUser | null, buildId: string, filter: q.RunFilter = {}) {
+  requirePermission(user, "read");
+  if (!isId(buildId) || !(await getBuild(buildId))) throw new NotFoundError("The build");
+  return q.listRuns(buildId, filter);
+}
+
+/** The plot data of an analysed run (waveform envelope, spectrum in dBV, harmonic markers); null until done. */
+export async function getRunPlot(user: CurrentUser | null, runId: string): Promise<{ status: q.RunStatus; plot: unknown | null; specLimitDbc: number | null }> {
+  const run = await getRun(user, runId);
+  const plot = run.status === "done" ? await q.getRunPlot(runId) : null;
+  return { status: run.status, plot, specLimitDbc: run.snapshot.spec?.maxHarmonicDbc ?? null };
+}
+
+/** A short-lived link that downloads the raw capture under its original name. */
+export async function getRunCaptureUrl(user: CurrentUser | null, runId: string): Promise<string> {
+  const run = await getRun(user, runId);
+  return presignGet(run.objectKey, { filename: run.originalFilename, expiresInSeconds: 300 });
+}

@@ -1,0 +1,202 @@
+import { z } from "zod";
+import { TOPOLOGIES, TOPOLOGY_PARTS, parseValue, validateDesign, type PartSpec, type Topology } from "@/lib/oscillator";
+import type { DesignSpec } from "@/lib/spec/types";
+import { optionalEngineeringValue, optionalNumberField, optionalText, pageQuerySchema, tempcoField, toleranceField } from "./common";
+
+/** One part as entered: value in engineering notation or an IEC 60062 code (or SI number), tolerance, tempco. */
+const rawPartSchema = z.object({
+  value: z.union([z.string(), z.number()]).optional(),
+  tolerance: toleranceField,
+  tempco: tempcoField,
+});
+type RawPart = z.infer<typeof rawPartSchema>;
+
+const UNIT_OF_KIND = { inductance: "H", capacitance: "F", coupling: undefined } as const;
+
+function isBlank(value: unknown): boolean {
+  return value === undefined || value === null || (typeof value === "string" && value.trim() === "");
+}
+
+/**
+ * Parses each part's value with the unit its role in `topology` calls for, adding issues at
+ * `parts.<ref>.value`; blank optional parts (Hartley's M or k) are dropped.
+ */
+function parseParts(topology: Topology, raw: Record<string, RawPart>, ctx: z.RefinementCtx, required: boolean): Record<string, PartSpec> {
+  const roles = TOPOLOGY_PARTS[topology];
+  const parts: Record<string, PartSpec> = {};
+  for (const [ref, part] of Object.entries(raw)) {
+    const role = roles[ref];
+    if (!role) {
+      ctx.addIssue({ code: "custom", path: ["parts", ref], message: `${topology} has no part ${ref} (its parts are ${Object.keys(roles).join(", ")}).` });
+      continue;
+    }
+    if (isBlank(part.value)) {
+      if (role.required && required) ctx.addIssue({ code: "custom", path: ["parts", ref, "value"], message: `Enter the value of ${ref} (${role.description}).` });
+      continue;
+    }
+    let valueSi: number;
+    if (typeof part.value === "number") {
+      valueSi = part.value;
+    } else {
+      try {
+        valueSi = parseValue(part.value as string, UNIT_OF_KIND[role.kind]);
+      } catch (err) {
+        ctx.addIssue({ code: "custom", path: ["parts", ref, "value"], message: err instanceof Error ? err.message : "This is not a value." });
+        continue;
+      }
+    }
+    const spec: PartSpec = { valueSi };
+    if (part.tolerance !== undefined) spec.tolerance = part.tolerance;
+    if (part.tempco !== undefined) {
+      spec.tempcoPpmPerK = part.tempco.ppmPerK;
+      if (part.tempco.spreadPpmPerK) spec.tempcoSpreadPpmPerK = part.tempco.spreadPpmPerK;
+    }
+    parts[ref] = spec;
+  }
+  if (required) {
+    for (const [ref, role] of Object.entries(roles)) {
+      if (role.required && raw[ref] === undefined) {
+        ctx.addIssue({ code: "custom", path: ["parts", ref, "value"], message: `Enter the value of ${ref} (${role.description}).` });
+      }
+    }
+  }
+  return parts;
+}
+
+/** Puts lib/oscillator's design problems ("part C1 must be …") on the field they name. */
+function addDesignProblems(problems: string[], ctx: z.RefinementCtx): void {
+  for (const problem of problems) {
+    const ref = /^part (\S+)/.exec(problem)?.[1];
+    const path = ref ? ["parts", ref, "value"] : /^extraCapacitanceF/.test(problem) ? ["extraCapacitance"] : ["parts"];
+    ctx.addIssue({ code: "custom", path, message: problem.charAt(0).toUpperCase() + problem.slice(1) + "." });
+  }
+}
+
+/** The spec as entered. Each limit is optional; a tolerance needs a target. */
+export const designSpecSchema = z
+  .object({
+    targetHz: optionalEngineeringValue("Hz", "The target frequency"),
+    toleranceValue: optionalNumberField("The frequency tolerance", { min: 0 }),
+    toleranceUnit: z.preprocess((v) => (isBlank(v) ? "percent" : v), z.enum(["percent", "ppm"], { error: "The tolerance unit is % or ppm." })),
+    maxThdPercent: optionalNumberField("The THD limit", { min: 0, max: 100 }),
+    maxHarmonicDbc: optionalNumberField("The harmonic limit (dBc, 0 or below, e.g. −40)", { max: 0 }),
+    minFundamentalVpk: optionalNumberField("The minimum amplitude (V peak)", { min: 0 }),
+    maxDriftPpm: optionalNumberField("The in-record drift limit (ppm)", { min: 0 }),
+  })
+  .superRefine((s, ctx) => {
+    if (s.toleranceValue !== undefined && s.targetHz === undefined) {
+      ctx.addIssue({ code: "custom", path: ["targetHz"], message: "A frequency tolerance needs a target frequency." });
+    }
+    if (s.targetHz !== undefined && !(s.targetHz > 0)) {
+      ctx.addIssue({ code: "custom", path: ["targetHz"], message: "The target frequency must be above 0 Hz." });
+    }
+  })
+  .transform(
+    (s): DesignSpec => ({
+      targetHz: s.targetHz ?? null,
+      toleranceValue: s.toleranceValue ?? null,
+      toleranceUnit: s.toleranceUnit,
+      maxThdPercent: s.maxThdPercent ?? null,
+      maxHarmonicDbc: s.maxHarmonicDbc ?? null,
+      minFundamentalVpk: s.minFundamentalVpk ?? null,
+      maxDriftPpm: s.maxDriftPpm ?? null,
+    }),
+  );
+
+const nameField = z
+  .string({ error: "Give the design a name." })
+  .trim()
+  .min(1, "Give the design a name.")
+  .max(120, "Use at most 120 characters for the name.");
+
+const windingsField = z.preprocess((v) => (isBlank(v) ? undefined : v), z.enum(["aiding", "opposing"], { error: "Windings are aiding or opposing." }).optional());
+
+/**
+ * A new design: name, topology, parts (by reference, as the topology names them), optional extra capacitance
+ * and Hartley windings, and the spec. Output values are SI; tolerances are fractions.
+ */
+export const designInputSchema = z
+  .object({
+    name: nameField,
+    topology: z.enum(TOPOLOGIES as [Topology, ...Topology[]], { error: `The topology is one of ${TOPOLOGIES.join(", ")}.` }),
+    parts: z.record(z.string(), rawPartSchema, { error: "Enter the part values." }),
+    extraCapacitance: optionalEngineeringValue("F", "The extra capacitance"),
+    windings: windingsField,
+    spec: designSpecSchema.prefault({ toleranceUnit: "percent" }),
+    changeNote: optionalText(500, "The note"),
+  })
+  .transform((d, ctx) => {
+    const before = ctx.issues.length;
+    const parts = parseParts(d.topology, d.parts, ctx, true);
+    const design = {
+      topology: d.topology,
+      parts,
+      ...(d.extraCapacitance !== undefined ? { extraCapacitanceF: d.extraCapacitance } : {}),
+      ...(d.windings ? { windings: d.windings } : {}),
+    };
+    // Only when every value parsed: the model's checks on half-read parts would repeat the same complaint.
+    if (ctx.issues.length === before && Object.keys(parts).length > 0) addDesignProblems(validateDesign(design), ctx);
+    return {
+      name: d.name,
+      topology: d.topology,
+      parts,
+      extraCapacitanceF: d.extraCapacitance ?? null,
+      windings: d.windings ?? null,
+      spec: d.spec,
+      changeNote: d.changeNote ?? "",
+    };
+  });
+export type DesignInput = z.output<typeof designInputSchema>;
+
+/**
+ * A change to a design (a new revision): every field optional. Parts given replace those refs (the others stay),
+ * the spec given replaces the spec, `extraCapacitance: ""` clears it. The merged design is checked by the service.
+ */
+export function designPatchSchemaFor(topology: Topology) {
+  return z
+    .object({
+      name: nameField.optional(),
+      parts: z.record(z.string(), rawPartSchema).optional(),
+      extraCapacitance: z.union([z.literal(""), z.null(), z.string(), z.number()]).optional(),
+      windings: windingsField,
+      spec: designSpecSchema.optional(),
+      changeNote: optionalText(500, "The note"),
+    })
+    .transform((d, ctx) => {
+      let extraCapacitanceF: number | null | undefined;
+      if (d.extraCapacitance === "" || d.extraCapacitance === null) extraCapacitanceF = null;
+      else if (typeof d.extraCapacitance === "number") extraCapacitanceF = d.extraCapacitance;
+      else if (typeof d.extraCapacitance === "string") {
+        try {
+          extraCapacitanceF = parseValue(d.extraCapacitance, "F");
+        } catch (err) {
+          ctx.addIssue({ code: "custom", path: ["extraCapacitance"], message: err instanceof Error ? err.message : "This is not a value." });
+        }
+      }
+      return {
+        name: d.name,
+        parts: d.parts ? parseParts(topology, d.parts, ctx, false) : undefined,
+        extraCapacitanceF,
+        windings: d.windings,
+        spec: d.spec,
+        changeNote: d.changeNote ?? "",
+      };
+    });
+}
+export type DesignPatch = z.output<ReturnType<typeof designPatchSchemaFor>>;
+
+/** Checks a merged design (after a patch) and returns field errors in the same shape a form shows. */
+export function designProblemsByField(design: unknown): Record<string, string[]> {
+  const fields: Record<string, string[]> = {};
+  for (const problem of validateDesign(design)) {
+    const ref = /^part (\S+)/.exec(problem)?.[1];
+    const key = ref ? `parts.${ref}.value` : "parts";
+    (fields[key] ??= []).push(problem);
+  }
+  return fields;
+}
+
+export const designListQuerySchema = pageQuerySchema.extend({
+  q: optionalText(200, "The search"),
+  topology: z.preprocess((v) => (isBlank(v) ? undefined : v), z.enum(TOPOLOGIES as [Topology, ...Topology[]]).optional()),
+});
