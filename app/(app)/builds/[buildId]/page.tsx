@@ -1,0 +1,252 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { AutoRefresh } from "@/components/logbook/auto-refresh";
+import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { BUILD_KIND_NAMES, buildBadge } from "@/components/logbook/build-status";
+import { BuildTimeline, mergeTimeline } from "@/components/logbook/build-timeline";
+import { designOfRevision, specPhrases, TOPOLOGY_NAMES } from "@/components/logbook/design-model";
+import { PageNav } from "@/components/logbook/page-nav";
+import { PartsTable } from "@/components/logbook/parts-table";
+import { PredictionPanel } from "@/components/logbook/prediction-panel";
+import { isRowId } from "@/components/logbook/route-ids";
+import { tweakLabel } from "@/components/logbook/tweak-label";
+import { Card, CardBody, CardHeader } from "@/components/ui/card";
+import { EmptyState } from "@/components/ui/empty-state";
+import { Select } from "@/components/ui/field";
+import { PageHeader } from "@/components/ui/page-header";
+import { VerdictBadge } from "@/components/ui/verdict-badge";
+import { buttonVariants } from "@/components/ui/button";
+import { getBuild } from "@/db/queries/builds";
+import { getDesign, getDesignRevision } from "@/db/queries/designs";
+import { listBuildFlags } from "@/db/queries/flags";
+import type { Page } from "@/db/queries/pagination";
+import { listRuns, type RunSummary } from "@/db/queries/runs";
+import { listTweaks } from "@/db/queries/tweaks";
+import { requireUser } from "@/lib/auth/current-user";
+import { can } from "@/lib/auth/permissions";
+import { BadRequestError } from "@/lib/errors";
+import { formatDateTime } from "@/lib/format/dates";
+import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
+import { BuildActions } from "./build-actions";
+
+type Props = {
+  params: Promise<{ buildId: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+};
+
+function one(value: string | string[] | undefined): string | undefined {
+  const v = Array.isArray(value) ? value[0] : value;
+  return v && v.trim() !== "" ? v.trim() : undefined;
+}
+
+const VERDICTS = ["pass", "fail", "none"] as const;
+const STATUSES = ["queued", "running", "done", "failed"] as const;
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  const { buildId } = await params;
+  const build = isRowId(buildId) ? await getBuild(buildId) : null;
+  return { title: build ? `Build ${build.label}` : "Build" };
+}
+
+export default async function BuildPage({ params, searchParams }: Props) {
+  const { buildId } = await params;
+  const user = await requireUser(`/builds/${buildId}`);
+  if (!isRowId(buildId)) notFound();
+  const search = await searchParams;
+  const cursor = one(search.cursor);
+  const verdictParam = one(search.verdict);
+  const verdict = VERDICTS.find((v) => v === verdictParam);
+  const statusParam = one(search.status);
+  const status = STATUSES.find((s) => s === statusParam);
+
+  const build = await getBuild(buildId);
+  if (!build) notFound();
+  const filter = { verdict, status, limit: 50 };
+  let runs: Page<RunSummary>;
+  const [design, builtFrom, tweaks, flags] = await Promise.all([
+    getDesign(build.designId),
+    getDesignRevision(build.designRevisionId),
+    listTweaks(buildId),
+    listBuildFlags(buildId, { unacknowledgedOnly: true }),
+  ]);
+  try {
+    runs = await listRuns(buildId, { ...filter, cursor });
+  } catch (err) {
+    if (!(err instanceof BadRequestError)) throw err;
+    runs = await listRuns(buildId, filter);
+  }
+  if (!design) notFound();
+
+  const topology = design.topology;
+  const rev = design.revision;
+  const asBuiltModel = designOfRevision(topology, { parts: build.asBuilt, extraCapacitanceF: rev.extraCapacitanceF, windings: rev.windings });
+  let report: DesignReport | null = null;
+  let predictionError: string | null = null;
+  try {
+    report = buildDesignReport(asBuiltModel);
+  } catch (err) {
+    predictionError = err instanceof Error ? err.message : "The model refused these values.";
+  }
+
+  // Tweaks shown beside this page of runs: those inside its time window (all of them on the newest page).
+  const filtered = Boolean(verdict || status);
+  const oldest = runs.items.length > 0 ? new Date(runs.items[runs.items.length - 1].createdAt).getTime() : null;
+  const newest = runs.items.length > 0 ? new Date(runs.items[0].createdAt).getTime() : null;
+  const windowTweaks = filtered
+    ? []
+    : tweaks.filter((t) => {
+        const at = new Date(t.createdAt).getTime();
+        return (runs.nextCursor === null || oldest === null || at >= oldest) && (!cursor || newest === null || at <= newest);
+      });
+  const items = mergeTimeline(runs.items, windowTweaks);
+  const tweaksById = new Map(tweaks.map((t) => [t.id, t]));
+  const latest = runs.items[0] ?? null;
+  const badge = buildBadge(build.status, !filtered && !cursor ? latest : null);
+  const analysing = runs.items.some((r) => r.status === "queued" || r.status === "running");
+
+  const latestRunAt = latest && !filtered && !cursor ? new Date(latest.createdAt).getTime() : 0;
+  const newestTweak = tweaks.filter((t) => !t.planned).at(-1);
+  const defaultTweakId = newestTweak && new Date(newestTweak.createdAt).getTime() > latestRunAt ? newestTweak.id : null;
+  const tweakChoices = [...tweaks]
+    .filter((t) => !t.planned)
+    .reverse()
+    .map((t) => ({ id: t.id, label: `${formatDateTime(t.createdAt)} · ${tweakLabel(t, topology)}` }));
+
+  const canTweak = can(user.role, "tweak:create");
+  const canUpload = can(user.role, "run:upload");
+  const base = `/builds/${buildId}`;
+  const designHref = `/projects/${build.projectId}/designs/${build.designId}`;
+
+  return (
+    <>
+      <PageHeader
+        eyebrow={
+          <Breadcrumbs
+            items={[
+              { label: "Projects", href: "/projects" },
+              { label: build.projectName, href: `/projects/${build.projectId}` },
+              { label: build.designName, href: designHref },
+              { label: build.label },
+            ]}
+          />
+        }
+        title={
+          <span className="flex flex-wrap items-center gap-3">
+            {build.label}
+            <VerdictBadge verdict={badge.verdict} label={badge.label} className="text-sm" />
+          </span>
+        }
+        description={`${BUILD_KIND_NAMES[build.kind] ?? build.kind}${build.kindRevision ? ` ${build.kindRevision}` : ""} of ${build.designName} (${TOPOLOGY_NAMES[topology]}, built from revision ${builtFrom?.revision ?? "?"}) · built by ${build.builtByName} · ${formatDateTime(build.createdAt)}`}
+      />
+      {build.reviewComment ? (
+        <p className="mb-4 rounded-md border border-rule bg-paper-raised px-3 py-2 text-sm text-ink-soft">
+          <strong className="text-ink">{build.status === "accepted" ? "Accepted" : build.status === "rejected" ? "Rejected" : "Review"}</strong>
+          {build.reviewedByName ? ` by ${build.reviewedByName}` : ""}
+          {build.reviewedAt ? `, ${formatDateTime(build.reviewedAt)}` : ""}: {build.reviewComment}
+        </p>
+      ) : null}
+      {flags.length > 0 ? (
+        <div role="alert" className="mb-4 rounded-lg border border-verdict-fail/40 bg-verdict-failBg px-4 py-3 text-sm">
+          <p className="font-semibold text-verdict-fail">
+            <span aria-hidden="true">⚑ </span>
+            {flags.length} open flag{flags.length === 1 ? "" : "s"} on this build
+          </p>
+          <ul className="mt-1 list-disc space-y-0.5 pl-5 text-ink">
+            {flags.slice(0, 5).map((f) => (
+              <li key={f.id}>
+                <Link className="underline-offset-2 hover:underline" href={`/runs/${f.runId}`}>
+                  {f.message}
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+
+      <div className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_24rem]">
+        <div className="order-2 min-w-0 space-y-3 lg:order-1">
+          <div className="flex flex-wrap items-end justify-between gap-2">
+            <h2 className="text-base font-semibold text-ink">Runs and tweaks</h2>
+            <form action={base} method="get" className="flex flex-wrap items-center gap-2" aria-label="Filter runs">
+              <label htmlFor="run-verdict" className="sr-only">
+                Verdict
+              </label>
+              <Select id="run-verdict" name="verdict" defaultValue={verdict ?? ""} className="w-32">
+                <option value="">Any verdict</option>
+                <option value="pass">Pass</option>
+                <option value="fail">Fail</option>
+                <option value="none">No verdict</option>
+              </Select>
+              <label htmlFor="run-status" className="sr-only">
+                Analysis status
+              </label>
+              <Select id="run-status" name="status" defaultValue={status ?? ""} className="w-32">
+                <option value="">Any status</option>
+                <option value="done">Analysed</option>
+                <option value="queued">Queued</option>
+                <option value="running">Running</option>
+                <option value="failed">Failed</option>
+              </Select>
+              <button type="submit" className={buttonVariants({ variant: "secondary", size: "sm" })}>
+                Filter
+              </button>
+            </form>
+          </div>
+          <AutoRefresh active={analysing} />
+          {items.length === 0 ? (
+            filtered ? (
+              <EmptyState title="No run matches these filters">
+                <Link className="text-copper underline" href={base}>
+                  Show every run
+                </Link>
+                .
+              </EmptyState>
+            ) : (
+              <EmptyState title="No captures yet">
+                {canUpload
+                  ? "Upload the first capture of this build: export the scope's record as CSV and drop it in the upload form."
+                  : "Technicians upload a capture after each tweak; each run shows what it measured and how far it is from the prediction."}
+              </EmptyState>
+            )
+          ) : (
+            <>
+              <BuildTimeline items={items} topology={topology} tweaksById={tweaksById} />
+              <PageNav basePath={base} params={{ verdict, status }} nextCursor={runs.nextCursor} hasCursor={Boolean(cursor)} shown={runs.items.length} noun="runs" />
+            </>
+          )}
+        </div>
+
+        <div className="order-1 min-w-0 space-y-5 lg:order-2">
+          <BuildActions
+            buildId={buildId}
+            canTweak={canTweak}
+            canUpload={canUpload}
+            topology={topology}
+            asBuilt={build.asBuilt}
+            extraCapacitanceF={rev.extraCapacitanceF}
+            windings={rev.windings}
+            tweaks={tweakChoices}
+            defaultTweakId={defaultTweakId}
+            tweakCount={tweaks.length}
+          />
+          <Card>
+            <CardHeader title="As built now" description="The design's values, changed by every applied tweak. ● marks a changed part." />
+            <CardBody className="px-0 py-0">
+              <PartsTable topology={topology} parts={build.asBuilt} compareWith={builtFrom?.parts ?? rev.parts} caption={`As-built parts of ${build.label}`} />
+            </CardBody>
+          </Card>
+          <Card>
+            <CardHeader title="Prediction for the as-built values" />
+            <CardBody>{report ? <PredictionPanel report={report} /> : <p className="text-sm text-verdict-fail">{predictionError}</p>}</CardBody>
+          </Card>
+          {specPhrases(rev.spec).length > 0 ? (
+            <p className="text-xs text-ink-soft">
+              Spec (revision {rev.revision}): {specPhrases(rev.spec).join(" · ")}
+            </p>
+          ) : null}
+        </div>
+      </div>
+    </>
+  );
+}
