@@ -5,7 +5,7 @@ import { getRun } from "@/db/queries/runs";
 import * as q from "@/db/queries/uploads";
 import { requirePermission } from "@/lib/auth/require-permission";
 import { BadRequestError, NotFoundError } from "@/lib/errors";
-import { captureObjectKey, headObject, photoObjectKey, presignPut } from "@/lib/storage";
+import { captureObjectKey, deleteObject, headObject, photoObjectKey, presignPut } from "@/lib/storage";
 import { PHOTO_LIMIT_BYTES } from "@/lib/validations/build";
 import type { RunMetadata, UploadSlotRequest } from "@/lib/validations/run";
 import { checkCaptureFile, checkCaptureSize, uploadLimitBytes } from "./capture-files";
@@ -148,4 +148,16 @@ export async function completePhotoUpload(actor: Actor, slotId: string, caption:
     await audit({ ...actor, user }, "build.photo-added", { type: "build", id: slot.buildId }, { photoId: photo.id }, trx);
     return photo;
   });
+}
+
+/**
+ * Drops an upload the user gave up on: the slot and whatever part of the object reached storage.
+ * A completed slot is left alone (its run owns the object).
+ */
+export async function cancelUpload(actor: Actor, slotId: string): Promise<void> {
+  const user = requirePermission(actor.user, "run:upload");
+  const slot = await ownSlot({ ...actor, user }, slotId, "capture");
+  if (slot.completedAt) return;
+  await deleteObject(slot.objectKey);
+  await q.deleteUploadSlot(slot.id);
 }
