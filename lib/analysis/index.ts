@@ -1,0 +1,38 @@
+/**
+ * Tankbook's capture analysis engine: pure TypeScript, no I/O.
+ *
+ * Typical use (a worker or a command reading a file as a stream):
+ *
+ * ```ts
+ * import { CaptureImporter, analyzeCapture, CaptureImportError } from "@/lib/analysis";
+ * const importer = new CaptureImporter({ sizeHintBytes });
+ * for await (const chunk of stream) importer.push(chunk);
+ * const { result, plot } = analyzeCapture(importer.finish(), { harmonics: 10 });
+ * ```
+ *
+ * Bad input raises {@link CaptureImportError} with a one-line message (and `line` for a bad row);
+ * anything else thrown is a bug.
+ *
+ * @packageDocumentation
+ */
+
+export { analyzeCapture, analyzeSamples } from "./analyze-capture";
+export type {
+  AnalysisMethod,
+  AnalysisResult,
+  AnalysisTimings,
+  AnalyzeOptions,
+  CaptureAnalysis,
+  Harmonic,
+  Spur,
+  TwoChannelResult,
+} from "./analyze-capture";
+export { CaptureImporter, importCapture, MIN_SAMPLES } from "./csv-import";
+export type { Capture, CaptureChannel, CaptureImportOptions, TimeSource } from "./csv-import";
+export type { CaptureColumn, ColumnKind } from "./columns";
+export { CaptureImportError } from "./errors";
+export type { HarmonicMarker, PlotData, SpectrumPlot, WaveformEnvelope } from "./plot";
+export { gainPhaseAtFundamental } from "./two-channel";
+export type { GainPhase } from "./two-channel";
+export type { AnalysisWarning, WarningCode } from "./warnings";
+export { ENGINE_VERSION } from "./version";

@@ -1,0 +1,352 @@
+import Papa from "papaparse";
+import { CaptureImportError } from "./errors";
+
+/** What the importer does with each column of a data row. */
+export const ROLE_SKIP = -1;
+export const ROLE_TIME = -2;
+
+const COMMA = 0x2c;
+const DOT = 0x2e;
+
+// Exact powers of ten: a mantissa below 2^53 times or divided by one of these is correctly rounded
+// (one IEEE operation on exact operands), so the fast path returns the same double as Number().
+// Anything else (more digits, huge exponents) goes through Number() itself.
+const POW10 = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
+
+/** Same grammar as the fast path, for rows that take the slow path. */
+const CONTROL_CHARACTER = /[\u0000-\u0008\u000b\u000e-\u001f\u007f]/;
+const NUMBER_TEXT = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
+
+function growTo(array: Float64Array, capacity: number): Float64Array {
+  const grown = new Float64Array(capacity);
+  grown.set(array);
+  return grown;
+}
+
+/**
+ * Parses the data rows of a capture from bytes into typed arrays, without building a string or an
+ * object per row. Each region handed to {@link RowParser.parseLines} must end just after a line feed.
+ *
+ * The fast path reads numbers straight from the bytes; a row it cannot read (quotes around a
+ * delimiter, extra trailing cells, a blank line made of spaces, a bad value) is decoded and handled
+ * by the slow path, which also produces the error message.
+ */
+export class RowParser {
+  /** Rows stored so far. */
+  count = 0;
+  /** 1-based number of the last line consumed. */
+  lineNumber: number;
+  firstTime = 0;
+  lastTime = 0;
+  private firstSpacing = 0;
+  private readonly roles: Int32Array;
+  private readonly scales: Float64Array;
+  private readonly columnHeaders: string[];
+  private readonly delimiter: number;
+  private readonly decimalComma: boolean;
+  private readonly hasTime: boolean;
+  private capacity: number;
+  /** One growing array per stored channel, in channel order. */
+  channels: Float64Array[];
+  private readonly decoder = new TextDecoder("utf-8");
+
+  /**
+   * @param roles - per column: ROLE_TIME, ROLE_SKIP or the index of the channel it fills
+   * @param scales - per column: factor from the file's number to volts (channels only)
+   * @param columnHeaders - per column: the header cell, for messages
+   * @param delimiter - `,`, `;` or a tab
+   * @param decimalComma - whether `,` may be the decimal mark (never with a comma delimiter)
+   * @param headerLineNumber - 1-based line of the header row
+   * @param initialCapacity - rows to allocate up front (a good guess avoids regrowing)
+   */
+  constructor(
+    roles: number[],
+    scales: number[],
+    columnHeaders: string[],
+    delimiter: string,
+    decimalComma: boolean,
+    headerLineNumber: number,
+    initialCapacity: number,
+  ) {
+    this.roles = Int32Array.from(roles);
+    this.scales = Float64Array.from(scales);
+    this.columnHeaders = columnHeaders;
+    this.delimiter = delimiter.charCodeAt(0);
+    this.decimalComma = decimalComma && delimiter !== ",";
+    this.hasTime = roles.includes(ROLE_TIME);
+    this.lineNumber = headerLineNumber;
+    this.capacity = Math.max(64, Math.ceil(initialCapacity));
+    const channelCount = roles.reduce((n, role) => (role >= 0 ? n + 1 : n), 0);
+    this.channels = Array.from({ length: channelCount }, () => new Float64Array(this.capacity));
+  }
+
+  /** Parses every line in `bytes[start, end)`; `bytes[end - 1]` must be a line feed. */
+  parseLines(bytes: Uint8Array, start: number, end: number): void {
+    // Byte values and tables as locals: module constants read inside a hot loop pay a
+    // temporal-dead-zone check on every access, which costs more than the parsing itself.
+    const LF = 0x0a;
+    const CR = 0x0d;
+    const SPACE = 0x20;
+    const TAB = 0x09;
+    const QUOTE = 0x22;
+    const PLUS = 0x2b;
+    const MINUS = 0x2d;
+    const DOT = 0x2e;
+    const COMMA = 0x2c;
+    const ZERO = 0x30;
+    const LOWER_E = 0x65;
+    const UPPER_E = 0x45;
+    const SKIP = -1;
+    const TIME = -2;
+    const pow10 = POW10;
+    const maxExactMantissa = Number.MAX_SAFE_INTEGER;
+    const maxSpacingError = 0.01;
+    const roles = this.roles;
+    const scales = this.scales;
+    const columnCount = roles.length;
+    const delimiter = this.delimiter;
+    const decimalComma = this.decimalComma;
+    const skipTabs = delimiter !== TAB;
+    const hasTime = this.hasTime;
+    let channels = this.channels;
+    let count = this.count;
+    let line = this.lineNumber;
+    let previousTime = this.lastTime;
+    let pos = start;
+
+    while (pos < end) {
+      const lineStart = pos;
+      line++;
+      let c = bytes[pos];
+      if (c === LF) {
+        pos++;
+        continue;
+      }
+      if (c === CR && bytes[pos + 1] === LF) {
+        pos += 2;
+        continue;
+      }
+      if (count === this.capacity) {
+        this.capacity = Math.ceil(this.capacity * 1.5);
+        for (let k = 0; k < channels.length; k++) channels[k] = growTo(channels[k], this.capacity);
+      }
+      let column = 0;
+      let time = 0;
+      let fast = true;
+      // Fields of one row.
+      for (;;) {
+        c = bytes[pos];
+        while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++pos];
+        const role = column < columnCount ? roles[column] : SKIP;
+        if (role === SKIP && column < columnCount) {
+          // A column we do not keep: step over it without reading it.
+          let quoted = false;
+          while (c !== LF && ((c !== delimiter && c !== CR) || quoted)) {
+            if (c === QUOTE) quoted = !quoted;
+            c = bytes[++pos];
+          }
+        } else {
+          if (column >= columnCount) {
+            fast = false;
+            break;
+          }
+          let quoted = false;
+          if (c === QUOTE) {
+            quoted = true;
+            c = bytes[++pos];
+          }
+          const numberStart = pos;
+          let negative = false;
+          if (c === MINUS) {
+            negative = true;
+            c = bytes[++pos];
+          } else if (c === PLUS) {
+            c = bytes[++pos];
+          }
+          let mantissa = 0;
+          let scale10 = 0;
+          const integerStart = pos;
+          let d = c - ZERO;
+          while (d >= 0 && d <= 9) {
+            mantissa = mantissa * 10 + d;
+            d = bytes[++pos] - ZERO;
+          }
+          let digits = pos - integerStart;
+          c = bytes[pos];
+          if (c === DOT || (c === COMMA && decimalComma)) {
+            const fractionStart = ++pos;
+            d = bytes[pos] - ZERO;
+            while (d >= 0 && d <= 9) {
+              mantissa = mantissa * 10 + d;
+              d = bytes[++pos] - ZERO;
+            }
+            scale10 = fractionStart - pos;
+            digits -= scale10;
+            c = bytes[pos];
+          }
+          if (digits === 0) {
+            fast = false;
+            break;
+          }
+          if (c === LOWER_E || c === UPPER_E) {
+            c = bytes[++pos];
+            let exponentNegative = false;
+            if (c === MINUS) {
+              exponentNegative = true;
+              c = bytes[++pos];
+            } else if (c === PLUS) {
+              c = bytes[++pos];
+            }
+            let exponent = 0;
+            let exponentDigits = 0;
+            d = c - ZERO;
+            while (d >= 0 && d <= 9) {
+              exponent = exponent * 10 + d;
+              exponentDigits++;
+              d = bytes[++pos] - ZERO;
+            }
+            if (exponentDigits === 0) {
+              fast = false;
+              break;
+            }
+            scale10 += exponentNegative ? -exponent : exponent;
+            c = bytes[pos];
+          }
+          let value: number;
+          // Every partial mantissa was below the final one, so if that is below 2^53 all were exact.
+          if (mantissa <= maxExactMantissa && scale10 >= -22 && scale10 <= 22) {
+            value = scale10 >= 0 ? mantissa * pow10[scale10] : mantissa / pow10[-scale10];
+            if (negative) value = -value;
+          } else {
+            value = this.slowNumber(bytes, numberStart, pos);
+            if (!Number.isFinite(value)) {
+              fast = false;
+              break;
+            }
+          }
+          if (quoted) {
+            if (c !== QUOTE) {
+              fast = false;
+              break;
+            }
+            c = bytes[++pos];
+          }
+          while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++pos];
+          if (role === TIME) time = value;
+          else channels[role][count] = value * scales[column];
+        }
+        column++;
+        if (c === delimiter) {
+          pos++;
+          continue;
+        }
+        if (c === LF || c === CR) break;
+        fast = false;
+        break;
+      }
+      if (fast && column === columnCount) {
+        c = bytes[pos];
+        if (c === CR) c = bytes[++pos];
+        if (c !== LF) {
+          fast = false;
+        } else {
+          pos++;
+        }
+      } else {
+        fast = false;
+      }
+      if (!fast) {
+        let lineEnd = lineStart;
+        while (bytes[lineEnd] !== LF) lineEnd++;
+        pos = lineEnd + 1;
+        const text = this.decoder.decode(bytes.subarray(lineStart, lineEnd));
+        const parsed = this.slowRow(text, line);
+        if (parsed === undefined) continue;
+        time = parsed.time;
+        channels = this.channels;
+        for (let k = 0; k < parsed.values.length; k++) channels[k][count] = parsed.values[k];
+      }
+      if (hasTime) {
+        if (count === 0) {
+          this.firstTime = time;
+        } else {
+          const spacing = time - previousTime;
+          if (!(spacing > 0)) {
+            this.rememberProgress(count, line, previousTime);
+            throw new CaptureImportError(
+              `time ${time} is not after the previous sample's ${previousTime}; time must be strictly increasing`,
+              line,
+            );
+          }
+          if (count === 1) {
+            this.firstSpacing = spacing;
+          } else if (Math.abs(spacing - this.firstSpacing) > maxSpacingError * this.firstSpacing) {
+            throw new CaptureImportError(
+              `sample spacing ${spacing} differs from the first spacing ${this.firstSpacing} by more than 1%; ` +
+                "the samples must be evenly spaced",
+              line,
+            );
+          }
+        }
+        previousTime = time;
+      }
+      count++;
+    }
+    this.rememberProgress(count, line, previousTime);
+  }
+
+  private rememberProgress(count: number, line: number, lastTime: number): void {
+    this.count = count;
+    this.lineNumber = line;
+    this.lastTime = lastTime;
+  }
+
+  /** Numbers with more than 15 significant digits or extreme exponents: let the engine round them. */
+  private slowNumber(bytes: Uint8Array, start: number, end: number): number {
+    let text = "";
+    for (let i = start; i < end; i++) text += String.fromCharCode(bytes[i] === COMMA ? DOT : bytes[i]);
+    return Number(text);
+  }
+
+  /**
+   * Reads one row the fast path could not, or explains why it is bad.
+   * @returns undefined for a blank line, else the time and the scaled channel values
+   */
+  private slowRow(text: string, line: number): { time: number; values: number[] } | undefined {
+    if (text.trim() === "") return undefined;
+    if (CONTROL_CHARACTER.test(text)) {
+      throw new CaptureImportError("binary content: control bytes in a data row, so this is not a text CSV", line);
+    }
+    const columnCount = this.roles.length;
+    const delimiter = String.fromCharCode(this.delimiter);
+    const cells = (Papa.parse<string[]>(text, { delimiter, quoteChar: '"' }).data[0] ?? [""]).map((cell) => cell.trim());
+    while (cells.length > columnCount && cells[cells.length - 1] === "") cells.pop();
+    // Columns with an empty header (a trailing delimiter on the header row) may be missing.
+    while (cells.length < columnCount && this.columnHeaders[cells.length] === "") cells.push("");
+    if (cells.length !== columnCount) {
+      throw new CaptureImportError(
+        `expected ${columnCount} value${columnCount === 1 ? "" : "s"} (one per header column), found ${cells.length}`,
+        line,
+      );
+    }
+    let time = 0;
+    const values: number[] = [];
+    for (let column = 0; column < columnCount; column++) {
+      const role = this.roles[column];
+      if (role === ROLE_SKIP) continue;
+      const cell = cells[column];
+      const header = this.columnHeaders[column];
+      if (cell === "") throw new CaptureImportError(`empty value in column ${header}`, line);
+      const normalised = this.decimalComma ? cell.replace(",", ".") : cell;
+      if (!NUMBER_TEXT.test(normalised)) {
+        const shown = cell.length > 40 ? `${cell.slice(0, 40)}…` : cell;
+        throw new CaptureImportError(`'${shown}' is not a number in column ${header}`, line);
+      }
+      const value = Number(normalised);
+      if (!Number.isFinite(value)) throw new CaptureImportError(`'${cell}' is out of range in column ${header}`, line);
+      if (role === ROLE_TIME) time = value;
+      else values[role] = value * this.scales[column];
+    }
+    return { time, values };
+  }
+}

@@ -1,0 +1,227 @@
+import { fitHarmonics } from "./harmonic-fit";
+import { fitSine4 } from "./sine-fit";
+
+/** Why a capture's figures may not be trusted. */
+export type WarningCode = "clipping" | "not-steady" | "few-cycles" | "low-oversampling" | "in-record-drift";
+
+/** One trust warning: a stable code for programs and a plain sentence for people. */
+export interface AnalysisWarning {
+  code: WarningCode;
+  message: string;
+}
+
+/** Fewer periods than this in the record and the harmonic and drift figures are shaky. */
+export const MIN_CYCLES = 10;
+/** Fewer samples per period than this and the waveform's shape is not captured (common practice). */
+export const MIN_SAMPLES_PER_CYCLE = 5;
+/** Relative envelope change across the record above which the oscillation is not steady. */
+export const MAX_ENVELOPE_CHANGE = 0.1;
+/** Frequency difference between the first and last thirds, in combined standard deviations. */
+export const DRIFT_SIGMAS = 3;
+
+function percent(value: number): string {
+  return `${(100 * value).toFixed(1)}%`;
+}
+
+/** Share of samples stuck at one extreme, and what an unclipped sine would leave there. */
+export interface ClippingCheck {
+  topFraction: number;
+  bottomFraction: number;
+  topExpected: number;
+  bottomExpected: number;
+  clippedTop: boolean;
+  clippedBottom: boolean;
+}
+
+/**
+ * Looks for flat tops: many samples sitting exactly at the record's maximum or minimum.
+ *
+ * A quantized sine also repeats its extreme code for a while, so the share at an extreme is
+ * compared with what a sine of the record's amplitude would spend within one code step of its
+ * peak (θ/π with cos θ = 1 − step/A, the step being the gap to the next value below the extreme).
+ * Clipping is reported when the share is three times that and at least 0.5 % of the record.
+ *
+ * @param y - the record in volts
+ * @returns the shares and the verdict for each extreme
+ */
+export function checkClipping(y: Float64Array): ClippingCheck {
+  let min = Infinity;
+  let max = -Infinity;
+  for (let i = 0; i < y.length; i++) {
+    const v = y[i];
+    if (v < min) min = v;
+    if (v > max) max = v;
+  }
+  const span = max - min;
+  const none = { topFraction: 0, bottomFraction: 0, topExpected: 0, bottomExpected: 0, clippedTop: false, clippedBottom: false };
+  if (!(span > 0)) return none;
+  const tolerance = 1e-9 * span;
+  let atTop = 0;
+  let atBottom = 0;
+  let belowTop = -Infinity;
+  let aboveBottom = Infinity;
+  for (let i = 0; i < y.length; i++) {
+    const v = y[i];
+    if (v >= max - tolerance) atTop++;
+    else if (v > belowTop) belowTop = v;
+    if (v <= min + tolerance) atBottom++;
+    else if (v < aboveBottom) aboveBottom = v;
+  }
+  const amplitude = span / 2;
+  const dwell = (step: number) => Math.acos(Math.max(-1, 1 - Math.max(0, step) / amplitude)) / Math.PI;
+  const topExpected = dwell(max - belowTop);
+  const bottomExpected = dwell(aboveBottom - min);
+  const topFraction = atTop / y.length;
+  const bottomFraction = atBottom / y.length;
+  const clipped = (fraction: number, expected: number) => fraction >= 0.005 && fraction > 3 * expected;
+  return {
+    topFraction,
+    bottomFraction,
+    topExpected,
+    bottomExpected,
+    clippedTop: clipped(topFraction, topExpected),
+    clippedBottom: clipped(bottomFraction, bottomExpected),
+  };
+}
+
+/** Amplitude of the fundamental in consecutive segments of the record. */
+export interface EnvelopeCheck {
+  segmentAmplitudesV: number[];
+  /** (largest − smallest) / largest. */
+  change: number;
+  /** The change allowed before warning, 10 % plus a margin for the noise in each segment's estimate. */
+  allowed: number;
+}
+
+/**
+ * Measures how the fundamental's amplitude changes along the record (a start-up transient or a
+ * dying oscillation), by three-parameter sine fits at the known frequency over 3 to 8 segments of
+ * at least two periods each.
+ *
+ * @param y - the record with its distortion removed (so harmonics do not bias short fits), volts
+ * @param sampleRateHz - sample rate in Hz
+ * @param frequencyHz - the fundamental in Hz
+ * @param noiseVrms - rms of the noise, for the margin
+ * @returns the segment amplitudes and the change, or undefined when the record has under six periods
+ */
+export function checkEnvelope(
+  y: Float64Array,
+  sampleRateHz: number,
+  frequencyHz: number,
+  noiseVrms: number,
+): EnvelopeCheck | undefined {
+  const cycles = (frequencyHz * y.length) / sampleRateHz;
+  const segments = Math.min(8, Math.floor(cycles / 2));
+  if (segments < 3) return undefined;
+  const length = Math.floor(y.length / segments);
+  const amplitudes: number[] = [];
+  const omega = (2 * Math.PI * frequencyHz) / sampleRateHz;
+  for (let s = 0; s < segments; s++) {
+    amplitudes.push(fitHarmonics(y, omega, 1, { start: s * length, length }).amplitudesVpk[0]);
+  }
+  const largest = Math.max(...amplitudes);
+  const smallest = Math.min(...amplitudes);
+  const change = largest > 0 ? (largest - smallest) / largest : 0;
+  // Each segment's amplitude has a standard deviation of about σ·√(2/L).
+  const margin = largest > 0 ? (4 * noiseVrms * Math.sqrt(2 / length)) / largest : 0;
+  return { segmentAmplitudesV: amplitudes, change, allowed: MAX_ENVELOPE_CHANGE + margin };
+}
+
+/** Frequencies of the first and last thirds of the record, with their uncertainties. */
+export interface DriftCheck {
+  firstThirdHz: number;
+  lastThirdHz: number;
+  firstSigmaHz: number;
+  lastSigmaHz: number;
+  /** |difference| in combined standard deviations. */
+  sigmas: number;
+  drifting: boolean;
+}
+
+/**
+ * Compares four-parameter fits of the first and last thirds of the record.
+ *
+ * @param y - the record with its distortion removed, volts
+ * @param sampleRateHz - sample rate in Hz
+ * @param frequencyHz - the whole record's frequency, as the starting point
+ * @returns both fits' frequencies and uncertainties, and whether they differ by more than
+ *   3 combined sigmas (and by more than 1e-9 relative, below which round-off rules)
+ */
+export function checkDrift(y: Float64Array, sampleRateHz: number, frequencyHz: number): DriftCheck {
+  const third = Math.floor(y.length / 3);
+  const sigmaOf = (fit: ReturnType<typeof fitSine4>) =>
+    (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, (fit.residualSumOfSquares / (fit.length - 4)) * fit.omegaVarianceFactor));
+  // Starting from the whole record's frequency, two Gauss–Newton steps are plenty for a third of it.
+  const first = fitSine4(y, sampleRateHz, frequencyHz, { start: 0, length: third, maxIterations: 2 });
+  const last = fitSine4(y, sampleRateHz, frequencyHz, { start: y.length - third, length: third, maxIterations: 2 });
+  const firstSigmaHz = sigmaOf(first);
+  const lastSigmaHz = sigmaOf(last);
+  const difference = Math.abs(last.frequencyHz - first.frequencyHz);
+  const combined = Math.hypot(firstSigmaHz, lastSigmaHz);
+  const sigmas = combined > 0 ? difference / combined : difference > 0 ? Infinity : 0;
+  return {
+    firstThirdHz: first.frequencyHz,
+    lastThirdHz: last.frequencyHz,
+    firstSigmaHz,
+    lastSigmaHz,
+    sigmas,
+    drifting: sigmas > DRIFT_SIGMAS && difference > 1e-9 * frequencyHz,
+  };
+}
+
+/** Inputs for {@link buildWarnings}: the figures already measured. */
+export interface WarningInputs {
+  cycles: number;
+  samplesPerCycle: number;
+  clipping: ClippingCheck;
+  envelope?: EnvelopeCheck;
+  drift?: DriftCheck;
+  maxV: number;
+  minV: number;
+}
+
+/**
+ * Turns the checks into the warnings a technician sees, in a fixed order.
+ * @returns zero or more warnings, each with a code and a one-sentence message
+ */
+export function buildWarnings(inputs: WarningInputs): AnalysisWarning[] {
+  const warnings: AnalysisWarning[] = [];
+  const { clipping, envelope, drift } = inputs;
+  if (clipping.clippedTop || clipping.clippedBottom) {
+    const parts: string[] = [];
+    if (clipping.clippedTop) parts.push(`${percent(clipping.topFraction)} of samples sit at the maximum ${inputs.maxV.toPrecision(4)} V`);
+    if (clipping.clippedBottom) parts.push(`${percent(clipping.bottomFraction)} at the minimum ${inputs.minV.toPrecision(4)} V`);
+    warnings.push({
+      code: "clipping",
+      message: `Flat tops: ${parts.join(" and ")}; the waveform looks clipped (scope range or circuit), so amplitude and harmonics are not trustworthy.`,
+    });
+  }
+  if (envelope && envelope.change > envelope.allowed) {
+    warnings.push({
+      code: "not-steady",
+      message: `The amplitude changes by ${percent(envelope.change)} across the record (${envelope.segmentAmplitudesV
+        .map((a) => a.toPrecision(3))
+        .join(", ")} V): a start-up transient or a dying oscillation; capture once it has settled.`,
+    });
+  }
+  if (inputs.cycles < MIN_CYCLES) {
+    warnings.push({
+      code: "few-cycles",
+      message: `Only ${inputs.cycles.toFixed(1)} periods in the record (at least ${MIN_CYCLES} are needed for trustworthy harmonics and drift); use a longer time base.`,
+    });
+  }
+  if (inputs.samplesPerCycle < MIN_SAMPLES_PER_CYCLE) {
+    warnings.push({
+      code: "low-oversampling",
+      message: `Only ${inputs.samplesPerCycle.toFixed(1)} samples per period (at least ${MIN_SAMPLES_PER_CYCLE} are needed); raise the sample rate.`,
+    });
+  }
+  if (drift?.drifting) {
+    const ppm = ((drift.lastThirdHz - drift.firstThirdHz) / drift.firstThirdHz) * 1e6;
+    warnings.push({
+      code: "in-record-drift",
+      message: `The frequency moves within the record: first third ${drift.firstThirdHz.toPrecision(9)} Hz, last third ${drift.lastThirdHz.toPrecision(9)} Hz (${ppm.toPrecision(3)} ppm, ${drift.sigmas.toFixed(1)} sigma); let the oscillator warm up.`,
+    });
+  }
+  return warnings;
+}

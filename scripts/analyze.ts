@@ -1,0 +1,127 @@
+/**
+ * The `analyze` command: runs the capture analysis engine on one CSV file.
+ *
+ *   npm run -s analyze -- FILE [--channel NAME] [--harmonics N] [--json]
+ *
+ * --json prints one JSON object (the analysis result, SI units, no plot data) on stdout; without it
+ * a short table. Bad input: exit status 1, one line on stderr, nothing on stdout. Bad usage: 2.
+ */
+import { closeSync, fstatSync, openSync, readSync } from "node:fs";
+import { analyzeCapture, type AnalysisResult, CaptureImporter, CaptureImportError } from "../lib/analysis";
+
+const USAGE = "usage: analyze FILE [--channel NAME] [--harmonics N] [--json]";
+const CHUNK_BYTES = 1 << 20;
+
+class UsageError extends Error {}
+
+interface Arguments {
+  file: string;
+  channel?: string;
+  harmonics?: number;
+  json: boolean;
+}
+
+function parseArguments(argv: string[]): Arguments {
+  let file: string | undefined;
+  let channel: string | undefined;
+  let harmonics: number | undefined;
+  let json = false;
+  for (let i = 0; i < argv.length; i++) {
+    const arg = argv[i];
+    if (arg === "--json") json = true;
+    else if (arg === "--channel" || arg === "--harmonics") {
+      const value = argv[++i];
+      if (value === undefined) throw new UsageError(`${arg} needs a value; ${USAGE}`);
+      if (arg === "--channel") channel = value;
+      else {
+        harmonics = Number(value);
+        if (!Number.isInteger(harmonics) || harmonics < 1 || harmonics > 100) {
+          throw new UsageError(`--harmonics must be an integer from 1 to 100, got '${value}'`);
+        }
+      }
+    } else if (arg.startsWith("--channel=")) channel = arg.slice("--channel=".length);
+    else if (arg.startsWith("-")) throw new UsageError(`unknown option '${arg}'; ${USAGE}`);
+    else if (file === undefined) file = arg;
+    else throw new UsageError(`one file only, got '${file}' and '${arg}'; ${USAGE}`);
+  }
+  if (file === undefined) throw new UsageError(USAGE);
+  return { file, channel, harmonics, json };
+}
+
+/** Streams the file through the importer in 1 MB chunks: the text never sits in memory whole. */
+function importFile(path: string) {
+  let fd: number;
+  try {
+    fd = openSync(path, "r");
+  } catch (error) {
+    const code = (error as NodeJS.ErrnoException).code;
+    throw new CaptureImportError(`cannot read ${path}: ${code === "ENOENT" ? "no such file" : (code ?? "unreadable")}`);
+  }
+  try {
+    const stat = fstatSync(fd);
+    if (stat.isDirectory()) throw new CaptureImportError(`cannot read ${path}: it is a directory`);
+    const importer = new CaptureImporter({ sizeHintBytes: stat.size });
+    const buffer = new Uint8Array(CHUNK_BYTES);
+    for (;;) {
+      const read = readSync(fd, buffer, 0, CHUNK_BYTES, null);
+      if (read === 0) break;
+      // The importer copies what it keeps, so one buffer serves every chunk.
+      importer.push(buffer.subarray(0, read));
+    }
+    return importer.finish();
+  } finally {
+    closeSync(fd);
+  }
+}
+
+function formatHz(hz: number): string {
+  const abs = Math.abs(hz);
+  if (abs >= 1e9) return `${(hz / 1e9).toPrecision(9)} GHz`;
+  if (abs >= 1e6) return `${(hz / 1e6).toPrecision(9)} MHz`;
+  if (abs >= 1e3) return `${(hz / 1e3).toPrecision(9)} kHz`;
+  return `${hz.toPrecision(9)} Hz`;
+}
+
+function formatDb(value: number | null, unit: string): string {
+  return value === null ? "—" : `${value.toFixed(2)} ${unit}`;
+}
+
+function table(result: AnalysisResult): string {
+  const rows: [string, string][] = [
+    ["channel", `${result.channel} (${result.samples} samples at ${formatHz(result.sampleRateHz).replace("Hz", "S/s")})`],
+    ["frequency", `${formatHz(result.frequencyHz)} ± ${result.frequencyUncertaintyHz.toPrecision(3)} Hz (1σ)`],
+    ["fundamental", `${result.fundamentalVpk.toPrecision(5)} Vpk`],
+    ["Vpp / Vrms / DC", `${result.vpp.toPrecision(5)} V / ${result.vrms.toPrecision(5)} V / ${result.dcV.toPrecision(4)} V`],
+    ["THD", `${result.thdPercent.toPrecision(4)} % (${formatDb(result.thdDb, "dB")}, orders 2–${result.harmonicOrdersRequested})`],
+    ["SINAD / SNR", `${formatDb(result.sinadDb, "dB")} / ${formatDb(result.snrDb, "dB")}`],
+    ["SFDR / ENOB", `${formatDb(result.sfdrDb, "dBc")} / ${result.enob === null ? "—" : result.enob.toFixed(2)}`],
+  ];
+  for (const h of result.harmonics) {
+    rows.push([`  H${h.order}`, `${formatHz(h.frequencyHz)}  ${h.amplitudeVpk.toExponential(3)} Vpk  ${formatDb(h.dBc, "dBc")}`]);
+  }
+  if (result.twoChannel) {
+    const tc = result.twoChannel;
+    rows.push([`${tc.channel} vs ${tc.referenceChannel}`, `${tc.gainDb.toFixed(2)} dB, ${tc.phaseDeg.toFixed(2)}°`]);
+  }
+  const width = Math.max(...rows.map(([label]) => label.length));
+  const lines = rows.map(([label, value]) => `${label.padEnd(width)}  ${value}`);
+  for (const w of result.warnings) lines.push(`warning [${w.code}] ${w.message}`);
+  return lines.join("\n") + "\n";
+}
+
+function main(argv: string[]): number {
+  try {
+    const args = parseArguments(argv);
+    const capture = importFile(args.file);
+    const { result } = analyzeCapture(capture, { channel: args.channel, harmonics: args.harmonics });
+    process.stdout.write(args.json ? JSON.stringify(result) + "\n" : table(result));
+    return 0;
+  } catch (error) {
+    const known = error instanceof CaptureImportError || error instanceof UsageError;
+    const message = error instanceof Error ? error.message : String(error);
+    process.stderr.write(`analyze: ${known ? "" : "internal error: "}${message.replace(/\s*\n\s*/g, " ")}\n`);
+    return error instanceof UsageError ? 2 : 1;
+  }
+}
+
+process.exitCode = main(process.argv.slice(2));
