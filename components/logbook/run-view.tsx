@@ -280,7 +280,7 @@ function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFi
   const amplitudeDbv = figures.fundamentalVpk ? 20 * Math.log10(figures.fundamentalVpk / Math.SQRT2) : null;
   return (
     <dl className="grid grid-cols-2 gap-3 lg:grid-cols-4">
-      <MetricTile label="Measured frequency" value={f.value} detail={f.uncertainty || "uncertainty not given"} />
+      <MetricTile label="Measured frequency" value={f.value} detail={f.uncertainty || "uncertainty not given"} className="col-span-2 lg:col-span-1" />
       <MetricTile
         label="Drift vs predicted"
         value={d.ppm}
@@ -354,7 +354,7 @@ function HarmonicsTable({ figures, limitDbc }: { figures: RunFigures; limitDbc: 
           <tr>
             <Th>Order</Th>
             <Th className="text-right">Frequency</Th>
-            <Th className="text-right">Amplitude (peak)</Th>
+            <Th className="hidden text-right sm:table-cell">Amplitude (peak)</Th>
             <Th className="text-right">Level</Th>
             {typeof limitDbc === "number" ? <Th>Against the limit</Th> : null}
           </tr>
@@ -365,15 +365,16 @@ function HarmonicsTable({ figures, limitDbc }: { figures: RunFigures; limitDbc: 
             return (
               <Tr key={h.order}>
                 <Td>{h.order}</Td>
-                <Td numeric>{formatQuantity(h.frequencyHz, "Hz", 5)}</Td>
-                <Td numeric>{formatQuantity(h.amplitudeVpk, "V", 3)}</Td>
-                <Td numeric>{formatDecibels(h.dBc, "dBc")}</Td>
+                <Td numeric className="whitespace-nowrap">{formatQuantity(h.frequencyHz, "Hz", 5)}</Td>
+                <Td numeric className="hidden whitespace-nowrap sm:table-cell">{formatQuantity(h.amplitudeVpk, "V", 3)}</Td>
+                <Td numeric className="whitespace-nowrap">{formatDecibels(h.dBc, "dBc")}</Td>
                 {typeof limitDbc === "number" ? (
                   <Td>
                     {over === null ? (
                       DASH
                     ) : (
                       <VerdictBadge
+                        className="whitespace-nowrap"
                         verdict={over ? "fail" : "pass"}
                         label={`${over ? "Over" : "Under"} by ${Math.abs((h.dBc as number) - limitDbc).toFixed(1)} dB`}
                       />
@@ -420,7 +421,7 @@ function Metadata({ run, figures, context }: { run: RunData; figures: RunFigures
             {rows.map(([k, v]) => (
               <div key={k} className="contents">
                 <dt className="text-ink-soft">{k}</dt>
-                <dd className="num min-w-0 break-all text-right font-mono text-[13px] text-ink">{v}</dd>
+                <dd className={`num min-w-0 text-right font-mono text-[13px] text-ink ${k === "SHA-256" || k === "File" ? "break-all" : "break-words"}`}>{v}</dd>
               </div>
             ))}
           </dl>

@@ -22,7 +22,9 @@ function marginText(check: SpecCheck): string | null {
   if (check.margin === null) return null;
   const digits = check.unit === "ppm" ? 0 : check.unit === "V" ? 3 : check.unit === "%" ? 3 : 1;
   const size = Math.abs(check.margin).toFixed(digits);
-  return `${check.passed ? "inside by" : "outside by"} ${size} ${check.unit}`.replace(/-/g, MINUS);
+  // A difference of two dBc levels is a plain dB figure.
+  const unit = check.unit === "dBc" ? "dB" : check.unit;
+  return `${check.passed ? "inside by" : "outside by"} ${size} ${unit}`.replace(/-/g, MINUS);
 }
 
 /** The spec verdict rule by rule: pass or fail in word and icon, how much margin, and the sentence. */

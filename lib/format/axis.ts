@@ -38,7 +38,11 @@ export function axisUnit(maxAbs: number, unit: string): AxisUnit {
  */
 export function axisTickLabels(splits: number[], incrementSi: number, axis: AxisUnit): string[] {
   const step = Math.abs(incrementSi * axis.factor);
-  const decimals = step > 0 && Number.isFinite(step) ? Math.min(6, Math.max(0, -Math.floor(Math.log10(step) + 1e-9))) : 0;
+  // The fewest decimals that write the step exactly (a 2.5 step needs one), so no two ticks round alike.
+  let decimals = 0;
+  if (step > 0 && Number.isFinite(step)) {
+    while (decimals < 6 && Math.abs(step * 10 ** decimals - Math.round(step * 10 ** decimals)) > 1e-6 * 10 ** decimals * step) decimals++;
+  }
   return splits.map((v) => {
     const text = (v * axis.factor).toFixed(decimals);
     return typographicMinus(/^-0(\.0+)?$/.test(text) ? text.slice(1) : text);

@@ -23,6 +23,12 @@ describe("axisTickLabels", () => {
   it("whole_numbers_when_ticks_are_whole", () => {
     expect(axisTickLabels([0, 50e-6, 100e-6], 50e-6, { factor: 1e6, unit: "µs" })).toEqual(["0", "50", "100"]);
   });
+  it("a_2_5_step_keeps_its_decimal", () => {
+    expect(axisTickLabels([0, 2.5e6, 5e6, 7.5e6], 2.5e6, { factor: 1e-6, unit: "MHz" })).toEqual(["0.0", "2.5", "5.0", "7.5"]);
+  });
+  it("a_0_02_step_has_two_decimals", () => {
+    expect(axisTickLabels([0.02, 0.04], 0.02, { factor: 1, unit: "V" })).toEqual(["0.02", "0.04"]);
+  });
   it("decimals_follow_the_step_and_minus_is_u2212", () => {
     expect(axisTickLabels([-0.5, 0, 0.5], 0.5, { factor: 1, unit: "V" })).toEqual([`${MINUS}0.5`, "0.0", "0.5"]);
   });
