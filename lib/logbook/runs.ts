@@ -134,7 +134,8 @@ export interface StreamUploadInput {
   filename: string;
   contentType: string | null;
   stream: Readable;
-  meta: RunMetadata;
+  /** May still be arriving (multipart fields after the file); awaited once the file is stored. */
+  meta: RunMetadata | Promise<RunMetadata>;
   idempotencyKey?: string;
 }
 
@@ -148,17 +149,26 @@ export type StreamUploadOutcome = RegisterOutcome | { kind: "existing"; run: q.R
  * @throws PayloadTooLargeError past UPLOAD_LIMIT_BYTES; UnsupportedMediaTypeError for a non-CSV; NotFoundError
  */
 export async function uploadRunFromStream(actor: Actor, input: StreamUploadInput): Promise<StreamUploadOutcome> {
-  const user = requirePermission(actor.user, "run:upload");
-  const build = isId(input.buildId) ? await getBuild(input.buildId) : null;
-  if (!build) throw new NotFoundError("The build");
-  checkCaptureFile(input.filename, input.contentType);
-  if (input.idempotencyKey) {
-    const firstId = await getIdempotentRunId(user.id, input.idempotencyKey);
-    const first = firstId ? await q.getRun(firstId) : null;
-    if (first) {
-      input.stream.resume();
-      return { kind: "existing", run: first };
+  let user: CurrentUser;
+  let buildId: string;
+  try {
+    user = requirePermission(actor.user, "run:upload");
+    const build = isId(input.buildId) ? await getBuild(input.buildId) : null;
+    if (!build) throw new NotFoundError("The build");
+    buildId = build.id;
+    checkCaptureFile(input.filename, input.contentType);
+    if (input.idempotencyKey) {
+      const firstId = await getIdempotentRunId(user.id, input.idempotencyKey);
+      const first = firstId ? await q.getRun(firstId) : null;
+      if (first) {
+        input.stream.resume();
+        return { kind: "existing", run: first };
+      }
     }
+  } catch (err) {
+    // Drain what is left of the body so the client sees the answer instead of a stalled upload.
+    input.stream.resume();
+    throw err;
   }
   const runId = randomUUID();
   const key = captureObjectKey(runId);
@@ -166,8 +176,8 @@ export async function uploadRunFromStream(actor: Actor, input: StreamUploadInput
   try {
     await putObject(key, metered.stream, "text/csv");
   } catch (err) {
-    await deleteObject(key).catch(() => undefined);
     input.stream.resume();
+    await deleteObject(key).catch(() => undefined);
     if (metered.tooLarge()) throw new PayloadTooLargeError(`The file is over the ${formatBytes(uploadLimitBytes())} capture limit.`);
     throw err;
   }
@@ -176,12 +186,12 @@ export async function uploadRunFromStream(actor: Actor, input: StreamUploadInput
   try {
     outcome = await registerRun(actor, {
       runId,
-      buildId: build.id,
+      buildId,
       objectKey: key,
       originalFilename: input.filename,
       expectedSizeBytes: sizeBytes,
       sha256,
-      meta: input.meta,
+      meta: await input.meta,
       idempotencyKey: input.idempotencyKey,
     });
   } catch (err) {

@@ -1,0 +1,63 @@
+import { Readable } from "node:stream";
+import type { ReadableStream as NodeWebReadableStream } from "node:stream/web";
+import busboy from "busboy";
+import { BadRequestError, UnsupportedMediaTypeError } from "@/lib/errors";
+
+/** The capture part of a multipart request, as a stream, and the text fields (complete once the file is read). */
+export interface MultipartCapture {
+  file: Promise<{ stream: Readable; filename: string; mimeType: string }>;
+  /** Resolves after the whole body was read (busboy finishes only once the file stream is consumed). */
+  fields: Promise<Record<string, string>>;
+}
+
+/**
+ * Parses a multipart/form-data request with busboy as it arrives: the file field `fileField` is handed over as
+ * a stream (never buffered), other files are drained, text fields are collected.
+ * @throws UnsupportedMediaTypeError when the request is not multipart; the promises reject with BadRequestError
+ *   when there is no file field or the body is malformed
+ */
+export function readMultipartCapture(request: Request, fileField = "file"): MultipartCapture {
+  const type = request.headers.get("content-type") ?? "";
+  if (!type.toLowerCase().startsWith("multipart/form-data")) {
+    throw new UnsupportedMediaTypeError(`Send the capture as multipart/form-data with the file in the field “${fileField}”.`);
+  }
+  if (!request.body) throw new BadRequestError(`The request has no body; put the capture in the field “${fileField}”.`);
+  let parser: busboy.Busboy;
+  try {
+    parser = busboy({ headers: { "content-type": type }, limits: { files: 5, fields: 30, fieldSize: 16 * 1024 } });
+  } catch (err) {
+    throw new BadRequestError(`The multipart body cannot be read: ${err instanceof Error ? err.message : String(err)}.`);
+  }
+  const fields: Record<string, string> = {};
+  let fileSeen = false;
+  const malformed = (err: unknown) => new BadRequestError(`The multipart body cannot be read: ${err instanceof Error ? err.message : String(err)}.`);
+
+  const file = new Promise<{ stream: Readable; filename: string; mimeType: string }>((resolve, reject) => {
+    parser.on("file", (name, stream, info) => {
+      if (name !== fileField || fileSeen) {
+        stream.resume();
+        return;
+      }
+      fileSeen = true;
+      resolve({ stream, filename: info.filename ?? "capture.csv", mimeType: info.mimeType ?? "" });
+    });
+    parser.on("close", () => {
+      if (!fileSeen) reject(new BadRequestError(`No file in the field “${fileField}”.`, { [fileField]: ["missing"] }));
+    });
+    parser.on("error", (err) => reject(malformed(err)));
+  });
+  const done = new Promise<Record<string, string>>((resolve, reject) => {
+    parser.on("field", (name, value) => {
+      fields[name] = value;
+    });
+    parser.on("close", () => resolve(fields));
+    parser.on("error", (err) => reject(malformed(err)));
+  });
+  // Either promise may go unawaited when the other fails first; their rejections are handled by the caller's.
+  file.catch(() => undefined);
+  done.catch(() => undefined);
+  const body = Readable.fromWeb(request.body as unknown as NodeWebReadableStream);
+  body.on("error", (err) => parser.destroy(err));
+  body.pipe(parser);
+  return { file, fields: done };
+}
