@@ -16,14 +16,18 @@ export const MIN_CYCLES = 10;
 export const MIN_SAMPLES_PER_CYCLE = 5;
 /** Relative envelope change across the record above which the oscillation is not steady. */
 export const MAX_ENVELOPE_CHANGE = 0.1;
-/** Frequency difference between the first and last thirds, in combined standard deviations. */
-export const DRIFT_SIGMAS = 3;
+/**
+ * Frequency difference between the first and last thirds, in combined standard deviations. The
+ * statistic is calibrated (rms 1.0 over 300 noisy synthetic records), so 3 would give 0.3 % false
+ * alarms; 4 also leaves room for the non-white error of a capture quantized without dither.
+ */
+export const DRIFT_SIGMAS = 4;
 
 function percent(value: number): string {
   return `${(100 * value).toFixed(1)}%`;
 }
 
-/** Share of samples stuck at one extreme, and what an unclipped sine would leave there. */
+/** Share of samples stuck at one extreme (in runs of three or more), and what an unclipped sine would leave there. */
 export interface ClippingCheck {
   topFraction: number;
   bottomFraction: number;
@@ -34,12 +38,13 @@ export interface ClippingCheck {
 }
 
 /**
- * Looks for flat tops: many samples sitting exactly at the record's maximum or minimum.
+ * Looks for flat tops: runs of samples sitting exactly at the record's maximum or minimum.
  *
- * A quantized sine also repeats its extreme code for a while, so the share at an extreme is
- * compared with what a sine of the record's amplitude would spend within one code step of its
- * peak (θ/π with cos θ = 1 − step/A, the step being the gap to the next value below the extreme).
- * Clipping is reported when the share is three times that and at least 0.5 % of the record.
+ * Only runs of three or more count, so a coherent record that meets the same peak value once per
+ * period is not mistaken for clipping. A quantized sine also dwells on its extreme code, so the
+ * share in such runs is compared with what a sine of the record's amplitude spends within one code
+ * step of its peak (θ/π with cos θ = 1 − step/A, the step being the gap to the next value inside
+ * the extreme). Clipping is reported when the share is three times that and at least 0.5 %.
  *
  * @param y - the record in volts
  * @returns the shares and the verdict for each extreme
@@ -56,23 +61,38 @@ export function checkClipping(y: Float64Array): ClippingCheck {
   const none = { topFraction: 0, bottomFraction: 0, topExpected: 0, bottomExpected: 0, clippedTop: false, clippedBottom: false };
   if (!(span > 0)) return none;
   const tolerance = 1e-9 * span;
-  let atTop = 0;
-  let atBottom = 0;
+  const top = max - tolerance;
+  const bottom = min + tolerance;
+  const minRun = 3;
+  let inTopRuns = 0;
+  let inBottomRuns = 0;
+  let topRun = 0;
+  let bottomRun = 0;
   let belowTop = -Infinity;
   let aboveBottom = Infinity;
   for (let i = 0; i < y.length; i++) {
     const v = y[i];
-    if (v >= max - tolerance) atTop++;
-    else if (v > belowTop) belowTop = v;
-    if (v <= min + tolerance) atBottom++;
-    else if (v < aboveBottom) aboveBottom = v;
+    if (v >= top) topRun++;
+    else {
+      if (topRun >= minRun) inTopRuns += topRun;
+      topRun = 0;
+      if (v > belowTop) belowTop = v;
+    }
+    if (v <= bottom) bottomRun++;
+    else {
+      if (bottomRun >= minRun) inBottomRuns += bottomRun;
+      bottomRun = 0;
+      if (v < aboveBottom) aboveBottom = v;
+    }
   }
+  if (topRun >= minRun) inTopRuns += topRun;
+  if (bottomRun >= minRun) inBottomRuns += bottomRun;
   const amplitude = span / 2;
   const dwell = (step: number) => Math.acos(Math.max(-1, 1 - Math.max(0, step) / amplitude)) / Math.PI;
   const topExpected = dwell(max - belowTop);
   const bottomExpected = dwell(aboveBottom - min);
-  const topFraction = atTop / y.length;
-  const bottomFraction = atBottom / y.length;
+  const topFraction = inTopRuns / y.length;
+  const bottomFraction = inBottomRuns / y.length;
   const clipped = (fraction: number, expected: number) => fraction >= 0.005 && fraction > 3 * expected;
   return {
     topFraction,
@@ -145,7 +165,7 @@ export interface DriftCheck {
  * @param sampleRateHz - sample rate in Hz
  * @param frequencyHz - the whole record's frequency, as the starting point
  * @returns both fits' frequencies and uncertainties, and whether they differ by more than
- *   3 combined sigmas (and by more than 1e-9 relative, below which round-off rules)
+ *   4 combined sigmas (and by more than 1e-9 relative, below which round-off rules)
  */
 export function checkDrift(y: Float64Array, sampleRateHz: number, frequencyHz: number): DriftCheck {
   const third = Math.floor(y.length / 3);
