@@ -7,7 +7,7 @@ import type { Topology } from "@/lib/oscillator/design";
 import { formatDateTime } from "@/lib/format/dates";
 import { formatDrift, formatThd, formatWithUncertainty } from "@/lib/format/numbers";
 import { runBadge } from "./build-status";
-import { tweakLabel } from "./tweak-label";
+import { tweakLabel, TweakText } from "./tweak-label";
 
 export type TimelineItem = { kind: "tweak"; at: Date; tweak: Tweak } | { kind: "run"; at: Date; run: RunSummary };
 
@@ -50,10 +50,8 @@ export function BuildTimeline({ items, topology, tweaksById }: { items: Timeline
                       ✎
                     </span>
                     <span>
-                      <span className="font-medium text-ink">
-                        {t.planned ? "Planned tweak: " : "Tweak: "}
-                        <span className="num font-mono">{tweakLabel(t, topology)}</span>
-                      </span>
+                      <span className="font-medium text-ink">{t.planned ? "Planned tweak: " : "Tweak: "}</span>
+                      <TweakText tweak={t} topology={topology} />
                       <span className="text-ink-faint"> · {t.createdByName}</span>
                     </span>
                   </span>
@@ -62,7 +60,7 @@ export function BuildTimeline({ items, topology, tweaksById }: { items: Timeline
             );
           }
           const r = item.run;
-          const f = formatWithUncertainty(r.measuredHz, r.frequencyUncertaintyHz, "Hz");
+          const f = formatWithUncertainty(r.measuredHz, r.frequencyUncertaintyHz, "Hz", 6, 8);
           const drift = formatDrift(r.driftPpm);
           const thd = formatThd(r.thdPercent === null ? null : r.thdPercent / 100);
           const follows = r.tweakId ? tweaksById.get(r.tweakId) : undefined;
@@ -82,15 +80,15 @@ export function BuildTimeline({ items, topology, tweaksById }: { items: Timeline
                   {r.duplicateOfRunId ? " · kept duplicate" : ""}
                 </span>
               </Td>
-              <Td numeric>
+              <Td numeric className="whitespace-nowrap">
                 {f.value}
                 {f.uncertainty ? <span className="block text-[11px] text-ink-faint">{f.uncertainty}</span> : null}
               </Td>
-              <Td numeric>
+              <Td numeric className="whitespace-nowrap">
                 {drift.ppm}
                 <span className="block text-[11px] text-ink-faint">{drift.percent}</span>
               </Td>
-              <Td numeric className="hidden sm:table-cell">
+              <Td numeric className="hidden whitespace-nowrap sm:table-cell">
                 {thd.percent}
               </Td>
               <Td>

@@ -329,7 +329,7 @@ function SpecFields({
           {text("targetHz", "Target frequency", { placeholder: "e.g. 412.3k or 1.5 MHz" })}
           <div className="grid grid-cols-[1fr_auto] items-end gap-2">
             {text("toleranceValue", "Frequency tolerance ±", { placeholder: "e.g. 0.5" })}
-            <div className="pb-[1.6rem]">
+            <div className="w-24 pb-[1.6rem]">
               <label htmlFor="spec-toleranceUnit" className="sr-only">
                 Tolerance unit
               </label>
@@ -338,7 +338,6 @@ function SpecFields({
                 name="spec.toleranceUnit"
                 value={spec.toleranceUnit}
                 onChange={(e) => setSpec({ toleranceUnit: e.target.value as SpecDraft["toleranceUnit"] })}
-                className="w-24"
               >
                 <option value="percent">%</option>
                 <option value="ppm">ppm</option>

@@ -24,10 +24,12 @@ export interface PartsTableProps {
   /** Design values to compare with (for a build's as-built values): changed parts are marked. */
   compareWith?: Parts;
   caption: string;
+  /** A narrow column (a sidebar): no descriptions and no tempco. */
+  compact?: boolean;
 }
 
 /** Part values with tolerance and tempco; with `compareWith`, parts that differ from the design are marked. */
-export function PartsTable({ topology, parts, compareWith, caption }: PartsTableProps) {
+export function PartsTable({ topology, parts, compareWith, caption, compact = false }: PartsTableProps) {
   const roles = TOPOLOGY_PARTS[topology];
   const refs = Object.keys(roles).filter((ref) => parts[ref] !== undefined);
   return (
@@ -37,7 +39,7 @@ export function PartsTable({ topology, parts, compareWith, caption }: PartsTable
           <Th>Part</Th>
           <Th className="text-right">Value</Th>
           <Th className="text-right">Tolerance</Th>
-          <Th className="hidden text-right sm:table-cell">Tempco</Th>
+          {compact ? null : <Th className="hidden text-right sm:table-cell">Tempco</Th>}
           {compareWith ? <Th className="text-right">Design</Th> : null}
         </tr>
       </thead>
@@ -51,9 +53,9 @@ export function PartsTable({ topology, parts, compareWith, caption }: PartsTable
             <Tr key={ref}>
               <Td>
                 <span className="font-mono font-semibold">{ref}</span>{" "}
-                <span className="hidden text-xs text-ink-faint md:inline">{roles[ref].description}</span>
+                {compact ? null : <span className="hidden text-xs text-ink-faint md:inline">{roles[ref].description}</span>}
               </Td>
-              <Td numeric>
+              <Td numeric className="whitespace-nowrap">
                 {formatPartValue(p.valueSi, unit)}
                 {changed ? (
                   <span className="ml-1 font-sans text-[11px] font-semibold text-copper" title="Changed by a tweak">
@@ -62,11 +64,13 @@ export function PartsTable({ topology, parts, compareWith, caption }: PartsTable
                   </span>
                 ) : null}
               </Td>
-              <Td numeric>{p.tolerance ? `± ${formatPercent(p.tolerance * 100, 2)}` : DASH}</Td>
-              <Td numeric className="hidden sm:table-cell">
-                {tempco(p.tempcoPpmPerK, p.tempcoSpreadPpmPerK)}
-              </Td>
-              {compareWith ? <Td numeric>{formatPartValue(designValue, unit)}</Td> : null}
+              <Td numeric className="whitespace-nowrap">{p.tolerance ? `± ${formatPercent(p.tolerance * 100, 2)}` : DASH}</Td>
+              {compact ? null : (
+                <Td numeric className="hidden whitespace-nowrap sm:table-cell">
+                  {tempco(p.tempcoPpmPerK, p.tempcoSpreadPpmPerK)}
+                </Td>
+              )}
+              {compareWith ? <Td numeric className="whitespace-nowrap">{formatPartValue(designValue, unit)}</Td> : null}
             </Tr>
           );
         })}

@@ -1,5 +1,5 @@
 import type { DesignReport } from "@/lib/oscillator/report";
-import { DASH, formatPercent, formatQuantity } from "@/lib/format/numbers";
+import { DASH, formatPercent, formatQuantity, formatRange } from "@/lib/format/numbers";
 
 function relative(valueHz: number, nominalHz: number): string {
   return formatPercent(((valueHz - nominalHz) / nominalHz) * 100, 2, { signed: true });
@@ -37,12 +37,12 @@ export function PredictionPanel({ report }: { report: DesignReport }) {
         <Row label="Minimum gain to start" value={report.minGain === null ? DASH : `${report.minGain.toPrecision(4)} ×`} />
         <Row
           label="Worst case"
-          value={`${formatQuantity(report.worstCase.minHz, "Hz", 5)} – ${formatQuantity(report.worstCase.maxHz, "Hz", 5)}`}
+          value={formatRange(report.worstCase.minHz, report.worstCase.maxHz, "Hz", 5)}
           detail={`${relative(report.worstCase.minHz, f0)} / ${relative(report.worstCase.maxHz, f0)} over ${report.worstCase.corners} tolerance corners`}
         />
         <Row
           label="Statistical"
-          value={`${formatQuantity(stat.minHz, "Hz", 5)} – ${formatQuantity(stat.maxHz, "Hz", 5)}`}
+          value={formatRange(stat.minHz, stat.maxHz, "Hz", 5)}
           detail={`${(stat.coverage * 100).toFixed(1)} % of ${stat.trials.toLocaleString("en-GB")} simulated builds · σ ${formatQuantity(stat.stdDevHz, "Hz", 3)}`}
         />
       </dl>

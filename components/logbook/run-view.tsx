@@ -21,6 +21,7 @@ import {
   formatPercent,
   formatPpm,
   formatQuantity,
+  formatRange,
   formatSignedPicofarads,
   formatThd,
   formatWithUncertainty,
@@ -304,8 +305,8 @@ function MeasuredVsPredicted({ run, drift }: { run: RunData; drift: DriftAnalysi
     ["Predicted f0", formatQuantity(s.predictedHz, "Hz", 6)],
     ["Measured", formatQuantity(drift?.measuredHz ?? run.measuredHz, "Hz", 7)],
     ["Difference", drift ? `${formatQuantity(drift.hz, "Hz", 4, { signed: true })} · ${formatPpm(drift.ppm)}` : DASH],
-    ["Worst-case band", s.worstCase ? `${formatQuantity(s.worstCase.minHz, "Hz", 5)} – ${formatQuantity(s.worstCase.maxHz, "Hz", 5)}` : DASH],
-    ["Statistical band", s.statistical ? `${formatQuantity(s.statistical.minHz, "Hz", 5)} – ${formatQuantity(s.statistical.maxHz, "Hz", 5)}` : DASH],
+    ["Worst-case band", formatRange(s.worstCase?.minHz, s.worstCase?.maxHz, "Hz", 5)],
+    ["Statistical band", formatRange(s.statistical?.minHz, s.statistical?.maxHz, "Hz", 5)],
     ["Implied extra capacitance", formatSignedPicofarads(drift?.impliedExtraCapacitanceF ?? run.impliedExtraCapacitanceF, 2)],
   ];
   const inBand =

@@ -24,3 +24,17 @@ export function tweakLabel(tweak: Pick<Tweak, "partRef" | "fromValue" | "toValue
   }
   return tweak.note || "note";
 }
+
+/** A tweak for a table row: the part change in tabular mono figures, the note in plain text. */
+export function TweakText({ tweak, topology }: { tweak: Pick<Tweak, "partRef" | "fromValue" | "toValue" | "note">; topology: Topology }) {
+  if (!tweak.partRef) return <span className="text-ink">{tweak.note || "note"}</span>;
+  const unit = unitOf(topology, tweak.partRef);
+  return (
+    <span>
+      <span className="num whitespace-nowrap font-mono text-[13px] text-ink">
+        {tweak.partRef} {formatPartValue(tweak.fromValue, unit)} → {formatPartValue(tweak.toValue, unit)}
+      </span>
+      {tweak.note ? <span className="text-ink-soft"> — {tweak.note}</span> : null}
+    </span>
+  );
+}

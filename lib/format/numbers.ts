@@ -84,6 +84,7 @@ function uncertaintyFigures(uncertainty: number): number {
  *   `fallbackFigures`.
  * @param unit - unit symbol.
  * @param fallbackFigures - significant figures when there is no usable uncertainty; default 6.
+ * @param maxFigures - most significant figures the value may take (a narrow table column); default 12.
  * @returns the value and the uncertainty as separate strings (so a page can set them apart) and both joined,
  *   e.g. 412307.123, 0.83, "Hz" → { value: "412.3071 kHz", uncertainty: "± 0.8 Hz", text: "412.3071 kHz ± 0.8 Hz" }.
  *   The figures of the value are held between 2 and 12, so an uncertainty larger than the value still prints.
@@ -93,6 +94,7 @@ export function formatWithUncertainty(
   uncertainty: number | null | undefined,
   unit: string,
   fallbackFigures = 6,
+  maxFigures = 12,
 ): { value: string; uncertainty: string; text: string } {
   if (!isNumber(value)) return { value: DASH, uncertainty: "", text: DASH };
   if (!isNumber(uncertainty) || uncertainty <= 0 || value === 0) {
@@ -101,7 +103,7 @@ export function formatWithUncertainty(
   }
   const uFigures = uncertaintyFigures(uncertainty);
   const lastExponent = lastDigitExponent(uncertainty, uFigures);
-  const valueFigures = Math.min(12, Math.max(1, Math.floor(Math.log10(Math.abs(value))) - lastExponent + 1));
+  const valueFigures = Math.min(maxFigures, Math.max(1, Math.floor(Math.log10(Math.abs(value))) - lastExponent + 1));
   const valueText = formatQuantity(value, unit, valueFigures);
   const uncertaintyText = `± ${formatSmallFigures(uncertainty, unit, uFigures)}`;
   return { value: valueText, uncertainty: uncertaintyText, text: `${valueText} ${uncertaintyText}` };
@@ -215,4 +217,27 @@ export function formatThd(thdRatio: number | null | undefined): { percent: strin
   if (!isNumber(thdRatio) || thdRatio < 0) return { percent: DASH, db: DASH };
   const db = thdRatio === 0 ? DASH : formatDecibels(20 * Math.log10(thdRatio), "dB");
   return { percent: formatPercent(thdRatio * 100), db };
+}
+
+/**
+ * A range of two values with one unit when both share a prefix.
+ *
+ * @returns e.g. 1.131e6, 1.219e6, "Hz", 5 → "1.1310 – 1.2190 MHz"; 998e3, 1.02e6 → "998.00 kHz – 1.0200 MHz".
+ */
+export function formatRange(
+  min: number | null | undefined,
+  max: number | null | undefined,
+  unit: string,
+  significantFigures = 4,
+): string {
+  if (!isNumber(min) || !isNumber(max)) return DASH;
+  const a = formatQuantity(min, unit, significantFigures);
+  const b = formatQuantity(max, unit, significantFigures);
+  const split = (text: string) => {
+    const at = text.lastIndexOf(" ");
+    return at < 0 ? { number: text, unit: "" } : { number: text.slice(0, at), unit: text.slice(at + 1) };
+  };
+  const left = split(a);
+  const right = split(b);
+  return left.unit !== "" && left.unit === right.unit ? `${left.number} – ${b}` : `${a} – ${b}`;
 }

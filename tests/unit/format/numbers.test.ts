@@ -9,6 +9,7 @@ import {
   formatPpm,
   formatQuantity,
   formatSignedPicofarads,
+  formatRange,
   formatThd,
   formatWithUncertainty,
   typographicMinus,
@@ -136,5 +137,17 @@ describe("formatThd", () => {
   });
   it("zero_thd_has_no_db_value", () => {
     expect(formatThd(0).db).toBe(DASH);
+  });
+});
+
+describe("formatRange", () => {
+  it("shared_prefix_writes_the_unit_once", () => {
+    expect(formatRange(1.131e6, 1.219e6, "Hz", 5)).toBe("1.1310 – 1.2190 MHz");
+  });
+  it("different_prefixes_keep_both_units", () => {
+    expect(formatRange(998e3, 1.02e6, "Hz", 5)).toBe("998.00 kHz – 1.0200 MHz");
+  });
+  it("missing_end_is_a_dash", () => {
+    expect(formatRange(null, 1, "Hz")).toBe(DASH);
   });
 });

@@ -172,22 +172,26 @@ export default async function BuildPage({ params, searchParams }: Props) {
               <label htmlFor="run-verdict" className="sr-only">
                 Verdict
               </label>
-              <Select id="run-verdict" name="verdict" defaultValue={verdict ?? ""} className="w-32">
+              <div className="w-36">
+              <Select id="run-verdict" name="verdict" defaultValue={verdict ?? ""}>
                 <option value="">Any verdict</option>
                 <option value="pass">Pass</option>
                 <option value="fail">Fail</option>
                 <option value="none">No verdict</option>
               </Select>
+              </div>
               <label htmlFor="run-status" className="sr-only">
                 Analysis status
               </label>
-              <Select id="run-status" name="status" defaultValue={status ?? ""} className="w-32">
+              <div className="w-36">
+              <Select id="run-status" name="status" defaultValue={status ?? ""}>
                 <option value="">Any status</option>
                 <option value="done">Analysed</option>
                 <option value="queued">Queued</option>
                 <option value="running">Running</option>
                 <option value="failed">Failed</option>
               </Select>
+              </div>
               <button type="submit" className={buttonVariants({ variant: "secondary", size: "sm" })}>
                 Filter
               </button>
@@ -230,12 +234,13 @@ export default async function BuildPage({ params, searchParams }: Props) {
             defaultTweakId={defaultTweakId}
             tweakCount={tweaks.length}
           />
-          <Card>
-            <CardHeader title="As built now" description="The design's values, changed by every applied tweak. ● marks a changed part." />
-            <CardBody className="px-0 py-0">
-              <PartsTable topology={topology} parts={build.asBuilt} compareWith={builtFrom?.parts ?? rev.parts} caption={`As-built parts of ${build.label}`} />
-            </CardBody>
-          </Card>
+          <section aria-labelledby="as-built-heading" className="space-y-1.5">
+            <h2 id="as-built-heading" className="text-sm font-semibold text-ink">
+              As built now
+            </h2>
+            <p className="text-xs text-ink-soft">The design&apos;s values, changed by every applied tweak; ● marks a changed part.</p>
+            <PartsTable compact topology={topology} parts={build.asBuilt} compareWith={builtFrom?.parts ?? rev.parts} caption={`As-built parts of ${build.label}`} />
+          </section>
           <Card>
             <CardHeader title="Prediction for the as-built values" />
             <CardBody>{report ? <PredictionPanel report={report} /> : <p className="text-sm text-verdict-fail">{predictionError}</p>}</CardBody>

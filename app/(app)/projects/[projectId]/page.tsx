@@ -73,7 +73,7 @@ export default async function ProjectPage({ params, searchParams }: Props) {
         topology: TOPOLOGY_NAMES[d.topology],
         revision: `r${d.currentRevision}`,
         predicted: formatQuantity(predictedHz, "Hz", 5),
-        target: <span title={specPhrases(d.revision.spec).join(" · ")}>{formatQuantity(targetHz, "Hz", 5)}</span>,
+        target: <span title={specPhrases(d.revision.spec).join(" · ")}>{formatQuantity(targetHz, "Hz", 6, { trimZeros: true })}</span>,
         builds: d.buildCount,
         runs: d.runCount,
         updated: formatDate(d.updatedAt),
@@ -114,11 +114,11 @@ export default async function ProjectPage({ params, searchParams }: Props) {
       />
       <h2 className="mb-2 text-sm font-semibold text-ink">Designs</h2>
       <SearchForm action={base} q={q} label="Filter designs" placeholder="Search design name">
-        <div>
+        <div className="w-40">
           <label htmlFor="topology-filter" className="sr-only">
             Topology
           </label>
-          <Select id="topology-filter" name="topology" defaultValue={topology ?? ""} className="w-40">
+          <Select id="topology-filter" name="topology" defaultValue={topology ?? ""}>
             <option value="">All topologies</option>
             {TOPOLOGIES.map((t) => (
               <option key={t} value={t}>
