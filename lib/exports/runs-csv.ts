@@ -45,10 +45,14 @@ export const RUN_CSV_COLUMNS: readonly Column[] = [
 
 const NEWLINE = "\r\n";
 
+// papaparse's own `escapeFormulae: true` pattern (/^[=+\-@\t\r].*$/) misses multi-line text, because `.` stops at a
+// line break and `$` then fails; a cell only has to start with one of these characters to be run as a formula.
+const FORMULA_START = /^[=+\-@\t\r]/;
+
 function unparse(data: Cell[][], header: boolean): string {
   return Papa.unparse(
     { fields: RUN_CSV_COLUMNS.map((c) => c.header), data },
-    { header, newline: NEWLINE, escapeFormulae: true, quotes: false },
+    { header, newline: NEWLINE, escapeFormulae: FORMULA_START, quotes: false },
   );
 }
 
@@ -76,6 +80,6 @@ export function runsToCsv(rows: readonly RunExportRow[]): string {
  * @example runsCsvFilename("BB-2 / rev A", new Date("2026-12-01T10:00:00Z")) → "tankbook-runs-BB-2-rev-A-2026-12-01.csv"
  */
 export function runsCsvFilename(buildLabel: string, at: Date): string {
-  const safe = buildLabel.normalize("NFKD").replace(/[^A-Za-z0-9._-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 60) || "build";
+  const safe = buildLabel.normalize("NFKD").replace(/[^A-Za-z0-9._-]+/g, "-").replace(/-{2,}/g, "-").replace(/^-+|-+$/g, "").slice(0, 60) || "build";
   return `tankbook-runs-${safe}-${at.toISOString().slice(0, 10)}.csv`;
 }
