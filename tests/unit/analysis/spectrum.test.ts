@@ -1,0 +1,45 @@
+import { describe, expect, it } from "vitest";
+import { coarsePeakHz, windowedSpectrum } from "@/lib/analysis/spectrum";
+
+function tone(n: number, bin: number, amplitude = 1): Float64Array {
+  return Float64Array.from({ length: n }, (_, i) => amplitude * Math.cos((2 * Math.PI * bin * i) / n + 0.3));
+}
+
+describe("windowedSpectrum", () => {
+  it("reads a bin-centred tone's peak amplitude (A = 2|X|/Σw)", () => {
+    const spectrum = windowedSpectrum(tone(4096, 300, 0.8), 4096);
+    expect(spectrum.amplitudeVpk[300]).toBeCloseTo(0.8, 9);
+    expect(spectrum.binHz).toBe(1);
+  });
+
+  it("reads a tone half a bin off low by the Blackman–Harris scallop loss, −0.8256 dB (Harris 1978; REFERENCES.md §3)", () => {
+    const spectrum = windowedSpectrum(tone(4096, 300.5), 4096);
+    const db = 20 * Math.log10(Math.max(spectrum.amplitudeVpk[300], spectrum.amplitudeVpk[301]));
+    expect(Math.abs(db - -0.8256)).toBeLessThan(2e-3);
+  });
+
+  it("zero-pads to a power of two and removes the mean first", () => {
+    const y = tone(3000, 100.3).map((v) => v + 10);
+    const spectrum = windowedSpectrum(y, 3000);
+    expect(spectrum.fftLength).toBe(4096);
+    expect(spectrum.amplitudeVpk[0]).toBeLessThan(0.01); // 10 without the mean removed
+  });
+
+  it("averages 50 %-overlapping segments of a record longer than the limit", () => {
+    const spectrum = windowedSpectrum(tone(10_000, 1234.5), 10_000, { maxFftLength: 2048 });
+    expect(spectrum.segmentLength).toBe(2048);
+    expect(spectrum.segments).toBe(9);
+  });
+});
+
+describe("coarsePeakHz", () => {
+  it("finds an off-bin tone to a few hundredths of a bin", () => {
+    const n = 5000;
+    const peak = coarsePeakHz(windowedSpectrum(tone(n, 321.37), n)) as number;
+    expect(Math.abs(peak - 321.37)).toBeLessThan(0.05);
+  });
+
+  it("finds nothing in silence", () => {
+    expect(coarsePeakHz(windowedSpectrum(new Float64Array(256), 1))).toBeUndefined();
+  });
+});
