@@ -5,6 +5,7 @@
 import { SeededRandom } from "../../scripts/lib/synth-capture";
 
 export { SeededRandom, synthCaptureCsv, synthSamples } from "../../scripts/lib/synth-capture";
+export type { SynthCaptureOptions } from "../../scripts/lib/synth-capture";
 
 /** Fourier amplitude laws of the ideal ±1 waves, V_n/V_1 (REFERENCES.md §2, T. Smyth, UCSD). */
 export type WaveShape = "square" | "triangle" | "sawtooth";
