@@ -23,14 +23,14 @@ export function BuildForm({ action, suggestedLabel }: BuildFormProps) {
           <Input
             id="build-label"
             name="label"
-            defaultValue={suggestedLabel}
+            defaultValue={state.values?.label ?? suggestedLabel}
             maxLength={80}
             aria-describedby={describedBy("build-label")}
             aria-invalid={state.errors?.label ? true : undefined}
           />
         </Field>
         <Field id="build-kind" label="Kind" errors={state.errors?.kind}>
-          <Select id="build-kind" name="kind" defaultValue="breadboard" aria-describedby={describedBy("build-kind")}>
+          <Select id="build-kind" name="kind" key={state.values?.kind ?? "breadboard"} defaultValue={state.values?.kind ?? "breadboard"} aria-describedby={describedBy("build-kind")}>
             {Object.entries(BUILD_KIND_NAMES).map(([value, name]) => (
               <option key={value} value={value}>
                 {name}
@@ -39,7 +39,7 @@ export function BuildForm({ action, suggestedLabel }: BuildFormProps) {
           </Select>
         </Field>
         <Field id="build-kind-revision" label="Board revision" hint="Optional, e.g. rev B." errors={state.errors?.kindRevision}>
-          <Input id="build-kind-revision" name="kindRevision" maxLength={40} aria-describedby={describedBy("build-kind-revision")} />
+          <Input id="build-kind-revision" name="kindRevision" defaultValue={state.values?.kindRevision} maxLength={40} aria-describedby={describedBy("build-kind-revision")} />
         </Field>
       </div>
       <p className="text-xs text-ink-faint">The build starts with the design&apos;s current part values; tweaks change them from there.</p>

@@ -23,7 +23,7 @@ export function ProjectForm({ action, initial, submitLabel = "Create project" }:
           name="name"
           required
           maxLength={120}
-          defaultValue={initial?.name}
+          defaultValue={state.values?.name ?? initial?.name}
           aria-describedby={describedBy("project-name")}
           aria-invalid={state.errors?.name ? true : undefined}
         />
@@ -34,7 +34,7 @@ export function ProjectForm({ action, initial, submitLabel = "Create project" }:
           name="purpose"
           rows={3}
           maxLength={2000}
-          defaultValue={initial?.purpose}
+          defaultValue={state.values?.purpose ?? initial?.purpose}
           aria-describedby={describedBy("project-purpose")}
           aria-invalid={state.errors?.purpose ? true : undefined}
         />

@@ -51,9 +51,15 @@ function isFinished(status: RunData["status"]): boolean {
   return status === "done" || status === "failed";
 }
 
-function unwrapRun(body: unknown): RunData {
-  const obj = body as { run?: RunData };
-  return (obj && typeof obj === "object" && "run" in obj ? obj.run : body) as RunData;
+/**
+ * The API's run JSON over what the page already holds: it leaves out internal fields (attempts, object key) and
+ * names the stored spec checks `checks`.
+ */
+function mergeRun(previous: RunData, body: unknown): RunData {
+  const obj = (body && typeof body === "object" && "run" in body ? (body as { run: unknown }).run : body) as Partial<RunData> & {
+    checks?: RunData["specChecks"];
+  };
+  return { ...previous, ...obj, specChecks: obj.specChecks ?? obj.checks ?? previous.specChecks ?? null } as RunData;
 }
 
 function unwrapPlot(body: unknown): RunPlot | null {
@@ -86,7 +92,8 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
   const queryClient = useQueryClient();
   const runQuery = useQuery({
     queryKey: ["run", runId],
-    queryFn: async ({ signal }) => unwrapRun(await fetchJson<unknown>(`/api/v1/runs/${runId}`, signal)),
+    queryFn: async ({ signal }) =>
+      mergeRun(queryClient.getQueryData<RunData>(["run", runId]) ?? initialRun, await fetchJson<unknown>(`/api/v1/runs/${runId}`, signal)),
     initialData: initialRun,
     refetchInterval: (query) => (query.state.data && isFinished(query.state.data.status) ? false : POLL_MS),
   });
@@ -99,18 +106,18 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
     staleTime: Infinity,
   });
 
-  const [actionMessage, setActionMessage] = useState<string | null>(null);
+  const [actionMessage, setActionMessage] = useState<{ text: string; ok: boolean } | null>(null);
   const reanalyseMutation = useMutation({
     mutationFn: async () => {
       if (!reanalyse) throw new Error("Re-analysis is not available here.");
       return reanalyse(runId);
     },
     onSuccess: (result) => {
-      if (result && result.ok === false) setActionMessage(result.message ?? "The run could not be re-queued.");
-      else setActionMessage(null);
+      if (result && result.ok) setActionMessage({ text: result.message ?? "Queued for analysis again.", ok: true });
+      else setActionMessage({ text: result?.message ?? "The run could not be re-queued.", ok: false });
       void queryClient.invalidateQueries({ queryKey: ["run", runId] });
     },
-    onError: () => setActionMessage("The server could not re-queue the analysis. Try again."),
+    onError: () => setActionMessage({ text: "The server could not re-queue the analysis. Try again.", ok: false }),
   });
 
   const figures = useMemo(() => runFigures(run), [run]);
@@ -123,6 +130,10 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
     }
   }, [run, figures.frequencyHz]);
   const evaluation = useMemo<SpecEvaluation | null>(() => {
+    // The worker's stored checks are the record; evaluating here only covers runs analysed before they were kept.
+    if (run.specChecks && run.specChecks.length > 0) {
+      return { verdict: run.verdict, checks: run.specChecks };
+    }
     const m = specMeasurements(figures);
     if (!m) return null;
     try {
@@ -130,7 +141,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
     } catch {
       return null;
     }
-  }, [figures, run.snapshot.spec]);
+  }, [figures, run.snapshot.spec, run.specChecks, run.verdict]);
 
   const plot = plotQuery.data ?? null;
   const fundamentalDbv = plot?.harmonicMarkers.find((m) => m.order === 1)?.dBV ?? null;
@@ -147,7 +158,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
           {context.tweakLabel ? <> · after tweak: {context.tweakLabel}</> : null}
         </span>
         <div className="ml-auto flex flex-wrap gap-2">
-          <a href={`/api/v1/runs/${runId}/raw`} download={run.originalFilename} className={buttonVariants({ variant: "secondary", size: "sm" })}>
+          <a href={`/api/v1/runs/${runId}/capture`} download={run.originalFilename} className={buttonVariants({ variant: "secondary", size: "sm" })}>
             <span aria-hidden="true">↓</span> Raw capture
           </a>
           {canReanalyse && isFinished(run.status) && reanalyse ? (
@@ -157,7 +168,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
           ) : null}
         </div>
       </div>
-      <FormMessage message={actionMessage} />
+      <FormMessage message={actionMessage?.text} tone={actionMessage?.ok ? "success" : "error"} />
 
       <StatusBanner run={run} refreshError={runQuery.isError ? (runQuery.error as Error).message : null} canReanalyse={canReanalyse} />
 
@@ -404,12 +415,12 @@ function Metadata({ run, figures, context }: { run: RunData; figures: RunFigures
     ["Sample rate", formatQuantity(figures.sampleRateHz, "Sa/s", 4, { trimZeros: true })],
     ["Samples", figures.samples === null ? DASH : figures.samples.toLocaleString("en-GB")],
     ["Record length", durationS === null ? DASH : formatQuantity(durationS, "s", 4)],
-    ["In-record drift", formatPpm(figures.inRecordDriftPpm)],
+    ["In-record drift", formatPpm(run.inRecordDriftPpm ?? figures.inRecordDriftPpm)],
     ["Uploaded", `${formatDateTime(run.createdAt)} by ${run.createdByName}`],
     ["Analysed", run.finishedAt ? formatDateTime(run.finishedAt, { seconds: true }) : DASH],
     ["Engine version", run.engineVersion ?? DASH],
-    ["Attempts", String(run.attempts)],
   ];
+  if (typeof run.attempts === "number" && run.attempts > 1) rows.push(["Analysis attempts", String(run.attempts)]);
   const parts = Object.entries(run.snapshot.parts);
   const preamble = Object.entries(figures.metadata);
   return (

@@ -1,6 +1,6 @@
 "use client";
 
-import { useActionState, useMemo, useState } from "react";
+import { useActionState, useEffect, useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select, Textarea, describedBy } from "@/components/ui/field";
 import type { FormState } from "@/lib/auth/action-state";
@@ -29,6 +29,13 @@ export function TweakForm({ action, topology, asBuilt, extraCapacitanceF, windin
   const [state, formAction, pending] = useActionState(action, {} as FormState);
   const [partRef, setPartRef] = useState("");
   const [toValue, setToValue] = useState("");
+  // After a logged tweak the form starts again (React resets the uncontrolled note itself).
+  useEffect(() => {
+    if (state.ok) {
+      setPartRef("");
+      setToValue("");
+    }
+  }, [state]);
   const roles = TOPOLOGY_PARTS[topology];
   const unit = partRef ? safeUnit(topology, partRef) : "";
 
@@ -96,10 +103,10 @@ export function TweakForm({ action, topology, asBuilt, extraCapacitanceF, windin
         </p>
       ) : null}
       <Field id="tweak-note" label="Note" hint="What you did and why: “shortened the leads”, “moved the probe ground”." errors={state.errors?.note}>
-        <Textarea id="tweak-note" name="note" rows={2} maxLength={2000} aria-describedby={describedBy("tweak-note")} />
+        <Textarea id="tweak-note" name="note" rows={2} maxLength={2000} defaultValue={state.values?.note} aria-describedby={describedBy("tweak-note")} />
       </Field>
       <label className="flex items-center gap-2 text-sm text-ink-soft">
-        <input type="checkbox" name="planned" value="true" className="h-4 w-4 accent-copper" />
+        <input type="checkbox" name="planned" value="true" defaultChecked={state.values?.planned === "true"} className="h-4 w-4 accent-copper" />
         Planned only: log it without changing the as-built values yet
       </label>
       <Button type="submit" disabled={pending}>

@@ -20,6 +20,8 @@ export interface UploadFormProps {
   defaultTweakId?: string | null;
   requestUpload: (buildId: string, request: UploadRequest) => Promise<UploadSlotResult>;
   registerRun: (slotId: string, registration: RunRegistration) => Promise<RegisterResult>;
+  /** Lets the server drop the slot and any bytes that reached storage after the user cancels. */
+  cancelUpload?: (slotId: string) => Promise<unknown>;
   /** Largest file the server accepts, bytes (shown and checked before uploading). */
   maxBytes?: number;
 }
@@ -44,7 +46,7 @@ function numberOrNull(text: string): number | null | "bad" {
  * The capture upload: pick or drop a CSV, choose the channel from the columns found in its first 64 kB, say how it
  * was measured, then the file goes straight to storage with real progress, and the run is registered.
  */
-export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, registerRun, maxBytes }: UploadFormProps) {
+export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, registerRun, cancelUpload, maxBytes }: UploadFormProps) {
   const router = useRouter();
   const ids = useId();
   const id = (name: string) => `${ids}-${name}`;
@@ -190,7 +192,9 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
       await handle.done;
     } catch (err) {
       setPhase({ kind: "idle" });
-      setMessage(err instanceof UploadCancelledError ? "Upload cancelled. Nothing was logged." : (err as Error).message);
+      const cancelled = err instanceof UploadCancelledError;
+      setMessage(cancelled ? "Upload cancelled. Nothing was logged." : (err as Error).message);
+      if (cancelUpload) void cancelUpload(slot.slotId).catch(() => undefined);
       return;
     } finally {
       uploadRef.current = null;

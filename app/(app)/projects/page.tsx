@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { CreatePanel } from "@/components/logbook/create-panel";
 import { PageNav } from "@/components/logbook/page-nav";
+import { ProjectForm } from "@/components/logbook/project-form";
 import { SearchForm } from "@/components/logbook/search-form";
 import { SortableTable, type SortableRow } from "@/components/logbook/sortable-table";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -11,6 +13,7 @@ import { requireUser } from "@/lib/auth/current-user";
 import { can } from "@/lib/auth/permissions";
 import { BadRequestError } from "@/lib/errors";
 import { formatDateTime } from "@/lib/format/dates";
+import { createProjectAction } from "./actions";
 
 export const metadata: Metadata = { title: "Projects" };
 
@@ -67,6 +70,11 @@ export default async function ProjectsPage({ searchParams }: Search) {
         title="Projects"
         description="Each project holds the designs of one product or study, their builds and every capture logged on them."
       />
+      {canWrite ? (
+        <CreatePanel title="New project" startOpen={page.items.length === 0 && !q && !cursor}>
+          <ProjectForm action={createProjectAction} />
+        </CreatePanel>
+      ) : null}
       <SearchForm action="/projects" q={q} label="Filter projects" placeholder="Search name or purpose" />
       {page.items.length === 0 ? (
         q ? (

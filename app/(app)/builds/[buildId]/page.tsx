@@ -232,7 +232,6 @@ export default async function BuildPage({ params, searchParams }: Props) {
             windings={rev.windings}
             tweaks={tweakChoices}
             defaultTweakId={defaultTweakId}
-            tweakCount={tweaks.length}
           />
           <section aria-labelledby="as-built-heading" className="space-y-1.5">
             <h2 id="as-built-heading" className="text-sm font-semibold text-ink">

@@ -13,6 +13,7 @@ import { getTweak } from "@/db/queries/tweaks";
 import { requireUser } from "@/lib/auth/current-user";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format/dates";
+import { reanalyseRunAction } from "./actions";
 
 type Params = { params: Promise<{ runId: string }> };
 
@@ -59,7 +60,7 @@ export default async function RunPage({ params }: Params) {
         description={`Run on build ${build.label}, logged ${formatDateTime(run.createdAt)}.`}
       />
       <QueryProvider>
-        <RunView initialRun={run} context={context} canReanalyse={can(user.role, "run:reanalyse")} />
+        <RunView initialRun={run} context={context} canReanalyse={can(user.role, "run:reanalyse")} reanalyse={reanalyseRunAction} />
       </QueryProvider>
     </>
   );

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { BuildForm } from "@/components/logbook/build-form";
 import { BUILD_KIND_NAMES, buildBadge } from "@/components/logbook/build-status";
 import { CreatePanel } from "@/components/logbook/create-panel";
 import { draftFromRevision } from "@/components/logbook/design-draft";
@@ -26,6 +27,7 @@ import { BadRequestError } from "@/lib/errors";
 import { formatDate, formatDateTime } from "@/lib/format/dates";
 import { formatDrift, formatQuantity } from "@/lib/format/numbers";
 import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
+import { createBuildAction } from "../actions";
 
 type Props = {
   params: Promise<{ projectId: string; designId: string }>;
@@ -35,6 +37,12 @@ type Props = {
 function one(value: string | string[] | undefined): string | undefined {
   const v = Array.isArray(value) ? value[0] : value;
   return v && v.trim() !== "" ? v.trim() : undefined;
+}
+
+/** "BB-3" after BB-1 and BB-2; the first build is BB-1. */
+function nextLabel(labels: string[]): string {
+  const numbers = labels.map((l) => /^BB-(\d+)$/i.exec(l)?.[1]).filter((n): n is string => n !== undefined).map(Number);
+  return `BB-${numbers.length ? Math.max(...numbers) + 1 : labels.length + 1}`;
 }
 
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
@@ -125,8 +133,7 @@ export default async function DesignPage({ params, searchParams }: Props) {
           <>
             {canBuild ? (
               <a href="#builds" className={buttonVariants({ variant: "secondary" })}>
-                Builds ({builds.items.length}
-                {builds.nextCursor ? "+" : ""})
+                + New build
               </a>
             ) : null}
             {canEdit ? (
@@ -197,6 +204,11 @@ export default async function DesignPage({ params, searchParams }: Props) {
         <h2 id="builds-heading" className="mb-2 text-base font-semibold text-ink">
           Builds
         </h2>
+        {canBuild ? (
+          <CreatePanel title="New build" startOpen={builds.items.length === 0 && !cursor}>
+            <BuildForm action={createBuildAction.bind(null, designId)} suggestedLabel={nextLabel(builds.items.map((b) => b.label))} />
+          </CreatePanel>
+        ) : null}
         {builds.items.length === 0 ? (
           <EmptyState title="No builds of this design yet">
             {canBuild
