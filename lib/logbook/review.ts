@@ -32,7 +32,15 @@ export interface ReviewOutcome {
   flaggedRules: string[];
 }
 
+// Ids from URLs reach SQL only when they are UUIDs; anything else is simply not found.
+const UUID_RULE = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+function checkId(id: string, what: string): void {
+  if (!UUID_RULE.test(id)) throw new NotFoundError(what);
+}
+
 async function lockedBuild(buildId: string, trx: Knex.Transaction): Promise<Build> {
+  checkId(buildId, "That build");
   const build = await getBuildForUpdate(buildId, trx);
   if (!build) throw new NotFoundError("That build");
   return build;
@@ -146,7 +154,7 @@ export async function reviewBuild(
 
 /** The sign-off basis of a build for its page and report (reason for a flagged acceptance, the run judged). */
 export async function getSignOff(buildId: string): Promise<ReviewBasis | null> {
-  return getReviewBasis(buildId);
+  return UUID_RULE.test(buildId) ? getReviewBasis(buildId) : null;
 }
 
 /**
@@ -157,6 +165,7 @@ export async function getSignOff(buildId: string): Promise<ReviewBasis | null> {
 export async function acknowledgeFlag(actor: CurrentUser | null, input: { flagId: string }, meta: RequestMeta): Promise<Flag> {
   const user = requirePermission(actor, "flag:acknowledge");
   return db().transaction(async (trx) => {
+    checkId(input.flagId, "That flag");
     const target = await getFlagTarget(input.flagId, trx);
     if (!target) throw new NotFoundError("That flag");
     const flag = await acknowledgeFlagRow(input.flagId, user.id, trx);
@@ -171,6 +180,7 @@ export async function acknowledgeFlag(actor: CurrentUser | null, input: { flagId
 
 async function setFollow(actor: CurrentUser | null, buildId: string, following: boolean, meta: RequestMeta): Promise<FollowStatus> {
   const user = requirePermission(actor, "read");
+  checkId(buildId, "That build");
   return db().transaction(async (trx) => {
     if (!(await getBuild(buildId, trx))) throw new NotFoundError("That build");
     await setBuildFollow(user.id, buildId, following, trx);
@@ -204,6 +214,7 @@ export async function unfollowBuild(actor: CurrentUser | null, input: { buildId:
 export async function followProject(actor: CurrentUser | null, input: { projectId: string; following?: boolean }, meta: RequestMeta): Promise<{ following: boolean }> {
   const user = requirePermission(actor, "read");
   const following = input.following ?? true;
+  checkId(input.projectId, "That project");
   return db().transaction(async (trx) => {
     if (!(await getProject(input.projectId, trx))) throw new NotFoundError("That project");
     if (following) await followProjectRow(user.id, input.projectId, trx);
@@ -226,6 +237,7 @@ export interface BuildRetune {
  * @throws RangeError from lib/oscillator when the stored design cannot be retuned
  */
 export async function getRetuneSuggestion(buildId: string, options: { series?: ESeriesName } = {}, trx: Knex | Knex.Transaction = db()): Promise<BuildRetune | null> {
+  if (!UUID_RULE.test(buildId)) return null;
   const runId = await getLatestAnalysedRunId(buildId, trx);
   if (!runId) return null;
   const run = await getRun(runId, trx);
@@ -252,11 +264,15 @@ function valueText(valueSi: number, unit: "F" | "H"): string {
  * Logs the build's retune suggestion as a planned tweak in one click (technician and above). The as-built values
  * do not change until the tweak is carried out. Clicking again while the same change is planned returns that tweak.
  *
- * @returns the planned tweak
+ * @returns the planned tweak, and whether this call created it (false: the same change was already planned)
  * @throws UnauthorizedError, ForbiddenError, NotFoundError; ConflictError when there is nothing to suggest (no analysed
  *   run with a measured frequency, no target, the current value is already nearest) or the part changed since that run
  */
-export async function planRetuneTweak(actor: CurrentUser | null, input: { buildId: string; series?: ESeriesName }, meta: RequestMeta): Promise<Tweak> {
+export async function planRetuneTweak(
+  actor: CurrentUser | null,
+  input: { buildId: string; series?: ESeriesName },
+  meta: RequestMeta,
+): Promise<{ tweak: Tweak; created: boolean }> {
   const user = requirePermission(actor, "tweak:create");
   return db().transaction(async (trx) => {
     const build = await lockedBuild(input.buildId, trx);
@@ -269,7 +285,7 @@ export async function planRetuneTweak(actor: CurrentUser | null, input: { buildI
       throw new ConflictError(`${s.part} changed since the latest analysed run; log a capture of the build as it is now before planning a retune.`);
     }
     const existing = (await listTweaks(input.buildId, trx)).find((t) => t.planned && t.partRef === s.part && t.toValue !== null && Math.abs(t.toValue - s.toSi) <= 1e-9 * Math.abs(s.toSi));
-    if (existing) return existing;
+    if (existing) return { tweak: existing, created: false };
     const note =
       `Planned from the retune suggestion on run ${retune.run.originalFilename}: ${s.part} ${valueText(s.fromSi, s.unit)} → ${valueText(s.toSi, s.unit)} (${s.series}), ` +
       `predicted ${formatEngineering(s.predictedHz, "Hz", 6)} for the ${formatEngineering(s.targetHz, "Hz", 6)} target ` +
@@ -286,6 +302,6 @@ export async function planRetuneTweak(actor: CurrentUser | null, input: { buildI
       },
       trx,
     );
-    return tweak;
+    return { tweak, created: true };
   });
 }

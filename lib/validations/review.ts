@@ -14,12 +14,22 @@ export const REASON_REQUIRED_MESSAGE = "The latest run of this build is flagged:
  * Accept, reject or reopen a build. A rejection says why (comment); accepting a flagged build also needs a reason,
  * which the service asks for because only it knows the latest run's verdict.
  */
+// The logbook's review form posts `status` (accepted | rejected | open); the API takes `decision`. Both land here.
+const STATUS_TO_DECISION: Record<string, string> = { accepted: "accept", rejected: "reject", open: "reopen" };
+
 export const buildReviewInputSchema = z
-  .object({
-    decision: z.enum(["accept", "reject", "reopen"], { error: "The decision is accept, reject or reopen." }),
-    comment: optionalText(2000, "The comment"),
-    reason: optionalText(2000, "The reason"),
-  })
+  .preprocess(
+    (v) => {
+      if (typeof v !== "object" || v === null) return v;
+      const o = v as Record<string, unknown>;
+      return o.decision === undefined && typeof o.status === "string" ? { ...o, decision: STATUS_TO_DECISION[o.status] ?? o.status } : o;
+    },
+    z.object({
+      decision: z.enum(["accept", "reject", "reopen"], { error: "The decision is accept, reject or reopen." }),
+      comment: optionalText(2000, "The comment"),
+      reason: optionalText(2000, "The reason"),
+    }),
+  )
   .superRefine((r, ctx) => {
     if (r.decision === "reject" && !r.comment) ctx.addIssue({ code: "custom", path: ["comment"], message: "Say why the build is rejected." });
   });

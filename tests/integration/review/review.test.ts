@@ -208,11 +208,12 @@ describe("planRetuneTweak", () => {
     expect(retune!.run.id).toBe(runId);
     expect(retune!.suggestion.changed).toBe(true);
 
-    const tweak = await planRetuneTweak(tech, { buildId: fx.buildId }, META);
+    const { tweak, created } = await planRetuneTweak(tech, { buildId: fx.buildId }, META);
+    expect(created).toBe(true);
     expect(tweak).toMatchObject({ planned: true, partRef: retune!.suggestion.part, fromValue: retune!.suggestion.fromSi, toValue: retune!.suggestion.toSi, createdBy: tech.id });
     expect(tweak.note).toMatch(/^Planned from the retune suggestion on run capture-/);
     const again = await planRetuneTweak(tech, { buildId: fx.buildId }, META);
-    expect(again.id).toBe(tweak.id);
+    expect(again).toMatchObject({ created: false, tweak: { id: tweak.id } });
     expect((await listTweaks(fx.buildId)).filter((t) => t.planned)).toHaveLength(1);
     // As-built values do not change until the tweak is carried out.
     expect((await getBuild(fx.buildId))!.asBuilt).toEqual(fx.snapshot.parts);
