@@ -1,5 +1,6 @@
 import type PgBoss from "pg-boss";
 import { db } from "@/db/index";
+import { notifyFlags } from "@/lib/alerts";
 import { failAbandonedRun, listStaleUnfinishedRuns } from "@/db/queries/runs";
 import { jobSettings } from "./config";
 import { createAnalysisPool, type AnalysisPool } from "./pool";
@@ -67,6 +68,7 @@ export async function startAnalysisWorker(options: WorkerOptions = {}): Promise<
           analyse: (input) => pool.run(input),
           lastAttempt: job.retryCount >= job.retryLimit,
         });
+        if (outcome === "done") await notifyFlags(job.data.runId); // never throws: a mail failure is logged, the run stays done
         log(`run ${job.data.runId}: ${outcome} in ${Date.now() - started} ms (attempt ${job.retryCount + 1})`);
         return { outcome };
       },
