@@ -12,6 +12,7 @@ import { createUser, getUserByEmail, type User } from "../db/queries/users";
 import { closeLucia } from "../lib/auth/lucia";
 import { hashPassword } from "../lib/auth/password";
 import type { Role } from "../lib/auth/permissions";
+import { seedDemoLogbook } from "./seed/logbook";
 
 /** What earlier steps made, for later ones (e.g. whose name a demo build goes under). */
 export interface SeedContext {
@@ -67,7 +68,7 @@ async function seedDemoAccounts(ctx: SeedContext): Promise<void> {
   writeFileSync(accountsFile, lines.join("\n"));
 }
 
-const steps: SeedStep[] = [{ name: "demo accounts", run: seedDemoAccounts }];
+const steps: SeedStep[] = [{ name: "demo accounts", run: seedDemoAccounts }, { name: "demo logbook", run: seedDemoLogbook }];
 
 async function main(): Promise<number> {
   if (process.env.NODE_ENV === "production" && !args["allow-production"]) {

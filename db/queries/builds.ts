@@ -156,6 +156,8 @@ export async function createBuild(
     builtBy: string;
     asBuilt: Parts;
     createdBy: string;
+    /** For the demo seed's back-dated history; the database clock otherwise. */
+    createdAt?: Date;
   },
   trx: Knex | Knex.Transaction = db(),
 ): Promise<Build> {
@@ -169,6 +171,7 @@ export async function createBuild(
       built_by: input.builtBy,
       as_built: JSON.stringify(input.asBuilt),
       created_by: input.createdBy,
+      ...(input.createdAt ? { created_at: input.createdAt, updated_at: input.createdAt } : {}),
     })
     .returning("id");
   return (await getBuild(id, trx))!;

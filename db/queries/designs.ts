@@ -178,13 +178,14 @@ function revisionRow(designId: string, revision: number, input: RevisionInput) {
 
 /** Creates a design with revision 1. Call inside a transaction so both rows land together. */
 export async function createDesign(
-  input: { projectId: string; name: string; topology: Topology } & RevisionInput,
+  input: { projectId: string; name: string; topology: Topology; createdAt?: Date } & RevisionInput,
   trx: Knex | Knex.Transaction = db(),
 ): Promise<Design> {
+  const at = input.createdAt ? { created_at: input.createdAt, updated_at: input.createdAt } : {};
   const [{ id }] = await trx("designs")
-    .insert({ project_id: input.projectId, name: input.name, topology: input.topology, current_revision: 1, created_by: input.createdBy })
+    .insert({ project_id: input.projectId, name: input.name, topology: input.topology, current_revision: 1, created_by: input.createdBy, ...at })
     .returning("id");
-  await trx("design_revisions").insert(revisionRow(id, 1, input));
+  await trx("design_revisions").insert({ ...revisionRow(id, 1, input), ...(input.createdAt ? { created_at: input.createdAt } : {}) });
   return (await getDesign(id, trx))!;
 }
 

@@ -89,10 +89,11 @@ export async function getProjectByName(name: string, trx: Knex | Knex.Transactio
 }
 
 export async function createProject(
-  input: { name: string; purpose: string; ownerId: string },
+  input: { name: string; purpose: string; ownerId: string; createdAt?: Date },
   trx: Knex | Knex.Transaction = db(),
 ): Promise<Project> {
-  const [{ id }] = await trx("projects").insert({ name: input.name, purpose: input.purpose, owner_id: input.ownerId }).returning("id");
+  const at = input.createdAt ? { created_at: input.createdAt, updated_at: input.createdAt } : {};
+  const [{ id }] = await trx("projects").insert({ name: input.name, purpose: input.purpose, owner_id: input.ownerId, ...at }).returning("id");
   return (await getProject(id, trx))!;
 }
 

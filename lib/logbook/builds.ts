@@ -23,7 +23,7 @@ async function checkBuilder(builtBy: string | undefined, fallback: string): Prom
  * Starts a build of a design (technician and above); its as-built parts are the design's current values.
  * @throws NotFoundError; ConflictError when the design already has a build with this label
  */
-export async function createBuild(actor: Actor, designId: string, input: BuildInput): Promise<q.Build> {
+export async function createBuild(actor: Actor, designId: string, input: BuildInput, options: { at?: Date } = {}): Promise<q.Build> {
   const user = requirePermission(actor.user, "build:create");
   const design = isId(designId) ? await getDesign(designId) : null;
   if (!design) throw new NotFoundError("The design");
@@ -40,6 +40,7 @@ export async function createBuild(actor: Actor, designId: string, input: BuildIn
           builtBy,
           asBuilt: design.revision.parts,
           createdBy: user.id,
+          createdAt: options.at,
         },
         trx,
       );

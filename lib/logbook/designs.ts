@@ -13,7 +13,7 @@ import { oscillatorDesign, predictDesign } from "./prediction";
  * Creates a design (revision 1) in a project (engineer and above).
  * @throws NotFoundError for an unknown project; ConflictError for a name taken in the project
  */
-export async function createDesign(actor: Actor, projectId: string, input: DesignInput): Promise<q.Design> {
+export async function createDesign(actor: Actor, projectId: string, input: DesignInput, options: { at?: Date } = {}): Promise<q.Design> {
   const user = requirePermission(actor.user, "design:write");
   if (!isId(projectId) || !(await getProject(projectId))) throw new NotFoundError("The project");
   return uniqueOr(`This project already has a design named “${input.name}”.`, () =>
@@ -29,6 +29,7 @@ export async function createDesign(actor: Actor, projectId: string, input: Desig
           spec: input.spec,
           changeNote: input.changeNote,
           createdBy: user.id,
+          createdAt: options.at,
         },
         trx,
       );

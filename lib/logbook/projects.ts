@@ -12,11 +12,11 @@ import { predictDesign } from "./prediction";
  * Creates a project owned by the actor (engineer and above).
  * @throws ForbiddenError/UnauthorizedError; ConflictError when the name is taken
  */
-export async function createProject(actor: Actor, input: ProjectInput): Promise<q.Project> {
+export async function createProject(actor: Actor, input: ProjectInput, options: { at?: Date } = {}): Promise<q.Project> {
   const user = requirePermission(actor.user, "project:write");
   return uniqueOr(`A project named “${input.name}” already exists.`, () =>
     db().transaction(async (trx) => {
-      const project = await q.createProject({ name: input.name, purpose: input.purpose, ownerId: user.id }, trx);
+      const project = await q.createProject({ name: input.name, purpose: input.purpose, ownerId: user.id, createdAt: options.at }, trx);
       await audit({ ...actor, user }, "project.created", { type: "project", id: project.id }, { name: project.name }, trx);
       return project;
     }),

@@ -13,9 +13,10 @@ import { audit, isId, type Actor } from "./context";
  * topology (a part's unit depends on it). An applied part change updates the as-built values in the same
  * transaction; a planned one only records the intent.
  * @param raw - form or JSON fields: partRef, toValue, note, planned
+ * @param options.at - back-dated time (the demo seed's history); the database clock otherwise
  * @throws NotFoundError; BadRequestError with field errors
  */
-export async function logTweak(actor: Actor, buildId: string, raw: unknown): Promise<q.Tweak> {
+export async function logTweak(actor: Actor, buildId: string, raw: unknown, options: { at?: Date } = {}): Promise<q.Tweak> {
   const user = requirePermission(actor.user, "tweak:create");
   const build = isId(buildId) ? await getBuild(buildId) : null;
   if (!build) throw new NotFoundError("The build");
@@ -38,7 +39,7 @@ export async function logTweak(actor: Actor, buildId: string, raw: unknown): Pro
       }
     }
     const tweak = await q.createTweak(
-      { buildId, partRef: input.partRef, fromValue, toValue: input.toValue, note: input.note, planned: input.planned, createdBy: user.id },
+      { buildId, partRef: input.partRef, fromValue, toValue: input.toValue, note: input.note, planned: input.planned, createdBy: user.id, createdAt: options.at },
       trx,
     );
     await audit(
