@@ -327,23 +327,36 @@ function SpecFields({
       <CardBody className="space-y-4">
         <div className="grid gap-4 sm:grid-cols-2">
           {text("targetHz", "Target frequency", { placeholder: "e.g. 412.3k or 1.5 MHz" })}
-          <div className="grid grid-cols-[1fr_auto] items-end gap-2">
-            {text("toleranceValue", "Frequency tolerance ±", { placeholder: "e.g. 0.5" })}
-            <div className="w-24 pb-[1.6rem]">
+          <Field id="spec-toleranceValue" label="Frequency tolerance ±" errors={errorsFor("spec.toleranceValue", spec.toleranceValue)}>
+            <div className="flex gap-2">
+              <Input
+                id="spec-toleranceValue"
+                name="spec.toleranceValue"
+                value={spec.toleranceValue}
+                inputMode="decimal"
+                autoComplete="off"
+                placeholder="e.g. 0.5"
+                onChange={(e) => setSpec({ toleranceValue: e.target.value })}
+                aria-describedby={describedBy("spec-toleranceValue")}
+                aria-invalid={errorsFor("spec.toleranceValue", spec.toleranceValue) ? true : undefined}
+                className="num min-w-0 flex-1 font-mono"
+              />
               <label htmlFor="spec-toleranceUnit" className="sr-only">
                 Tolerance unit
               </label>
-              <Select
-                id="spec-toleranceUnit"
-                name="spec.toleranceUnit"
-                value={spec.toleranceUnit}
-                onChange={(e) => setSpec({ toleranceUnit: e.target.value as SpecDraft["toleranceUnit"] })}
-              >
-                <option value="percent">%</option>
-                <option value="ppm">ppm</option>
-              </Select>
+              <div className="w-24 shrink-0">
+                <Select
+                  id="spec-toleranceUnit"
+                  name="spec.toleranceUnit"
+                  value={spec.toleranceUnit}
+                  onChange={(e) => setSpec({ toleranceUnit: e.target.value as SpecDraft["toleranceUnit"] })}
+                >
+                  <option value="percent">%</option>
+                  <option value="ppm">ppm</option>
+                </Select>
+              </div>
             </div>
-          </div>
+          </Field>
           {text("maxThdPercent", "Maximum THD (%)", { placeholder: "e.g. 1" })}
           {text("maxHarmonicDbc", "Maximum single harmonic (dBc)", { hint: "0 or below: −40 means every harmonic 40 dB under the fundamental.", placeholder: "e.g. -40" })}
           {text("minFundamentalVpk", "Minimum amplitude (V peak)", { placeholder: "e.g. 0.5" })}

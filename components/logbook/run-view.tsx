@@ -22,7 +22,7 @@ import {
   formatPpm,
   formatQuantity,
   formatRange,
-  formatSignedPicofarads,
+  formatSignedCapacitance,
   formatThd,
   formatWithUncertainty,
 } from "@/lib/format/numbers";
@@ -288,6 +288,8 @@ function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFi
   const f = formatWithUncertainty(figures.frequencyHz, figures.frequencyUncertaintyHz, "Hz");
   const driftPpm = drift?.ppm ?? run.driftPpm;
   const d = formatDrift(driftPpm);
+  // Past 1 % the percentage reads better than a six-digit ppm figure.
+  const large = typeof driftPpm === "number" && Math.abs(driftPpm) >= 10_000;
   const thd = formatThd(figures.thdPercent === null ? null : figures.thdPercent / 100);
   const amplitudeDbv = figures.fundamentalVpk ? 20 * Math.log10(figures.fundamentalVpk / Math.SQRT2) : null;
   return (
@@ -295,8 +297,8 @@ function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFi
       <MetricTile label="Measured frequency" value={f.value} detail={f.uncertainty || "uncertainty not given"} className="col-span-2 lg:col-span-1" />
       <MetricTile
         label="Drift vs predicted"
-        value={d.ppm}
-        detail={d.percent}
+        value={large ? d.percent : d.ppm}
+        detail={large ? d.ppm : d.percent}
         note={run.snapshot.predictedHz ? `Predicted ${formatQuantity(run.snapshot.predictedHz, "Hz", 6)}` : "No prediction for these values"}
       />
       <MetricTile label="THD" value={thd.percent} detail={thd.db} note={figures.sinadDb !== null ? `SINAD ${formatDecibels(figures.sinadDb)}` : undefined} />
@@ -304,7 +306,7 @@ function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFi
         label="Fundamental amplitude"
         value={formatQuantity(figures.fundamentalVpk, "V", 4)}
         detail={amplitudeDbv === null ? "peak" : `peak · ${formatDecibels(amplitudeDbv, "dBV")}`}
-        note={run.probeAttenuation !== 1 ? `Probe ×${run.probeAttenuation} applied` : undefined}
+        note={run.probeAttenuation !== 1 ? `Logged with a ×${run.probeAttenuation} probe` : undefined}
       />
     </dl>
   );
@@ -318,7 +320,7 @@ function MeasuredVsPredicted({ run, drift }: { run: RunData; drift: DriftAnalysi
     ["Difference", drift ? `${formatQuantity(drift.hz, "Hz", 4, { signed: true })} · ${formatPpm(drift.ppm)}` : DASH],
     ["Worst-case band", formatRange(s.worstCase?.minHz, s.worstCase?.maxHz, "Hz", 5)],
     ["Statistical band", formatRange(s.statistical?.minHz, s.statistical?.maxHz, "Hz", 5)],
-    ["Implied extra capacitance", formatSignedPicofarads(drift?.impliedExtraCapacitanceF ?? run.impliedExtraCapacitanceF, 2)],
+    ["Implied extra capacitance", formatSignedCapacitance(drift?.impliedExtraCapacitanceF ?? run.impliedExtraCapacitanceF)],
   ];
   const inBand =
     drift && s.worstCase ? drift.measuredHz >= s.worstCase.minHz && drift.measuredHz <= s.worstCase.maxHz : null;

@@ -2,7 +2,7 @@
 
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useId, useRef, useState, type DragEvent } from "react";
+import { useEffect, useId, useRef, useState, type DragEvent } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select, Textarea, describedBy } from "@/components/ui/field";
 import { ProgressBar } from "@/components/ui/progress-bar";
@@ -67,6 +67,11 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
   const [tweakId, setTweakId] = useState(defaultTweakId ?? "");
 
   const busy = phase.kind === "uploading" || phase.kind === "registering";
+
+  // A tweak logged while this form is open becomes the one the next capture follows.
+  useEffect(() => {
+    setTweakId(defaultTweakId ?? "");
+  }, [defaultTweakId]);
 
   async function choose(next: File | null) {
     setMessage(null);

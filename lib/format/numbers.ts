@@ -241,3 +241,16 @@ export function formatRange(
   const right = split(b);
   return left.unit !== "" && left.unit === right.unit ? `${left.number} – ${b}` : `${a} – ${b}`;
 }
+
+/**
+ * A signed capacitance for implied stray: picofarads with two decimals up to 1 nF, engineering notation above
+ * (a drift of several percent implies nanofarads, and "+4727.94 pF" hides its size).
+ *
+ * @param capacitanceF - farads, signed.
+ * @returns e.g. 3.24e-12 → "+3.24 pF"; -4.7279e-9 → "−4.728 nF".
+ */
+export function formatSignedCapacitance(capacitanceF: number | null | undefined): string {
+  if (!isNumber(capacitanceF)) return DASH;
+  if (Math.abs(capacitanceF) < 1e-9) return formatSignedPicofarads(capacitanceF, 2);
+  return formatQuantity(capacitanceF, "F", 4, { signed: true });
+}

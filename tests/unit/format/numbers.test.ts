@@ -8,6 +8,7 @@ import {
   formatPercent,
   formatPpm,
   formatQuantity,
+  formatSignedCapacitance,
   formatSignedPicofarads,
   formatRange,
   formatThd,
@@ -149,5 +150,14 @@ describe("formatRange", () => {
   });
   it("missing_end_is_a_dash", () => {
     expect(formatRange(null, 1, "Hz")).toBe(DASH);
+  });
+});
+
+describe("formatSignedCapacitance", () => {
+  it("small_values_in_picofarads", () => {
+    expect(formatSignedCapacitance(3.244e-12)).toBe("+3.24 pF");
+  });
+  it("large_values_in_engineering_notation", () => {
+    expect(formatSignedCapacitance(-4.7279e-9)).toBe(`${MINUS}4.728 nF`);
   });
 });
