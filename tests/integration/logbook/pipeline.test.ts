@@ -11,7 +11,10 @@ import { createDesign, reviseDesign } from "@/lib/logbook/designs";
 import { createProject } from "@/lib/logbook/projects";
 import { getRunPlot, getRunView, reanalyseRun, uploadRunFromStream } from "@/lib/logbook/runs";
 import { logTweak } from "@/lib/logbook/tweaks";
-import { completeUpload, requestUploadSlot } from "@/lib/logbook/uploads";
+import { cancelUpload, completePhotoUpload, completeUpload, requestPhotoSlot, requestUploadSlot } from "@/lib/logbook/uploads";
+import { sweepUnfinishedRuns } from "@/lib/jobs/worker";
+import { ANALYSIS_QUEUE, QUEUE_SCHEMA } from "@/lib/jobs/queue";
+import { listBuildPhotos } from "@/db/queries/builds";
 import { predictOscillator } from "@/lib/oscillator";
 import { headObject, getObjectBuffer } from "@/lib/storage";
 import { designInputSchema, designPatchSchemaFor } from "@/lib/validations/design";
@@ -219,6 +222,53 @@ describe("capture pipeline", () => {
     await expect(
       requestUploadSlot({ user: technician }, { buildId, filename: "huge.csv", sizeBytes: 600 * 1024 * 1024, contentType: "text/csv" }),
     ).rejects.toMatchObject({ status: 413 });
+  });
+});
+
+describe("uploads and the safety sweep", () => {
+  it("cancels_an_upload_and_removes_its_bytes", async () => {
+    const body = Buffer.from(capture(370_000, 41));
+    const ticket = await requestUploadSlot({ user: technician }, { buildId, filename: "cancel.csv", sizeBytes: body.length, contentType: "text/csv" });
+    expect((await fetch(ticket.url, { method: "PUT", headers: ticket.headers, body })).status).toBe(200);
+    await cancelUpload({ user: technician }, ticket.slotId);
+    expect(await headObject(ticket.key)).toBeNull();
+    expect(await getUploadSlot(ticket.slotId)).toBeNull();
+    await expect(cancelUpload({ user: engineer }, ticket.slotId)).rejects.toMatchObject({ status: 404 });
+  });
+
+  it("refuses_to_register_a_file_of_another_size_than_announced", async () => {
+    const ticket = await requestUploadSlot({ user: technician }, { buildId, filename: "size.csv", sizeBytes: 100, contentType: "text/csv" });
+    // Real S3 refuses a body of another length than the one signed; the emulator stores it, so the registration's
+    // own size check is what this test sees.
+    await fetch(ticket.url, { method: "PUT", headers: ticket.headers, body: Buffer.alloc(150, 0x61) });
+    await expect(completeUpload({ user: technician }, ticket.slotId, runMetadataSchema.parse({}))).rejects.toMatchObject({
+      status: 400,
+      message: expect.stringMatching(/not the 100 bytes announced/),
+    });
+  });
+
+  it("adds_a_photo_to_a_build_through_its_own_slot", async () => {
+    const png = Buffer.from("89504e470d0a1a0a0000000d49484452", "hex");
+    const ticket = await requestPhotoSlot({ user: technician }, buildId, { contentType: "image/png", sizeBytes: png.length, filename: "bench.png" });
+    expect((await fetch(ticket.url, { method: "PUT", headers: ticket.headers, body: png })).status).toBe(200);
+    const photo = await completePhotoUpload({ user: technician }, ticket.slotId, "top side");
+    expect(photo).toMatchObject({ buildId, contentType: "image/png", sizeBytes: png.length, caption: "top side" });
+    expect((await listBuildPhotos(buildId)).map((p) => p.id)).toContain(photo.id);
+    await expect(requestPhotoSlot({ user: viewer }, buildId, { contentType: "image/png", sizeBytes: 10, filename: "x.png" })).rejects.toMatchObject({ status: 403 });
+  });
+
+  it("queues_again_a_run_whose_job_was_lost", async () => {
+    const { outcome } = await uploadThroughSlot(technician, capture(369_000, 43), {}, "lost-job.csv");
+    if (outcome.kind !== "created") throw new Error("expected a new run");
+    const first = await waitFinished(outcome.run.id);
+    // Simulate a job lost outside our transaction: the run waits with no job behind it.
+    await db()("runs").where({ id: first.id }).update({ status: "queued", updated_at: new Date(Date.now() - 3600_000) });
+    await db().withSchema(QUEUE_SCHEMA).from("job").where({ name: ANALYSIS_QUEUE, singleton_key: first.id }).delete();
+    const swept = await sweepUnfinishedRuns(60_000);
+    expect(swept.requeued).toBeGreaterThanOrEqual(1);
+    const again = await waitFinished(first.id);
+    expect(again.status).toBe("done");
+    expect(again.attempts).toBe(first.attempts + 1);
   });
 });
 

@@ -28,7 +28,7 @@ export async function useScratchStack(name: string): Promise<ScratchStack> {
   const url = new URL(base.toString());
   url.pathname = `/${database}`;
   const bucket = `logbook-it-${randomBytes(3).toString("hex")}`;
-  Object.assign(process.env, {
+  const settings: Record<string, string> = {
     DATABASE_URL: url.toString(),
     S3_BUCKET: bucket,
     // Small numbers so a lost job is retried within seconds (the queue takes them when it is first created).
@@ -37,7 +37,10 @@ export async function useScratchStack(name: string): Promise<ScratchStack> {
     ANALYSIS_MAINTENANCE_SECONDS: "1",
     ANALYSIS_POLL_SECONDS: "0.5",
     ANALYSIS_THREADS: "1",
-  });
+  };
+  // Put back what was there when the file is done, so no later test file in this process lands in our database.
+  const previous = Object.fromEntries(Object.keys(settings).map((k) => [k, process.env[k]]));
+  Object.assign(process.env, settings);
   const { migrationSource } = await import("@/db/migration-source");
   const k = knex({ client: "pg", connection: url.toString() });
   await k.migrate.latest({ migrationSource: migrationSource() });
@@ -48,6 +51,10 @@ export async function useScratchStack(name: string): Promise<ScratchStack> {
     databaseUrl: url.toString(),
     bucket,
     async drop() {
+      for (const [k, v] of Object.entries(previous)) {
+        if (v === undefined) delete process.env[k];
+        else process.env[k] = v;
+      }
       const a = knex({ client: "pg", connection: base.toString() });
       await a.raw(`drop database if exists ${database} with (force)`);
       await a.destroy();
