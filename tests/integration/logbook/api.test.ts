@@ -183,7 +183,7 @@ describe("builds, tweaks and runs", () => {
     expect((await api().post("/api/v1/uploads").set(as("viewer")).send({ buildId, filename: "slot.csv", sizeBytes: body.length })).status).toBe(403);
     const slot = await api().post("/api/v1/uploads").set(as("technician")).send({ buildId, filename: "slot.csv", sizeBytes: body.length, contentType: "text/csv" });
     expect(slot.status).toBe(201);
-    const put = await fetch(slot.body.url, { method: "PUT", headers: slot.body.headers, body });
+    const put = await fetch(slot.body.url, { method: "PUT", headers: slot.body.headers, body: new Uint8Array(body) });
     expect(put.status).toBe(200);
     const done = await api().post(`/api/v1/uploads/${slot.body.slotId}/complete`).set(as("technician")).send({ note: "via slot" });
     expect(done.status).toBe(201);
