@@ -164,8 +164,24 @@ export default async function BuildPage({ params, searchParams }: Props) {
         </div>
       ) : null}
 
-      <div className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_24rem]">
-        <div className="order-2 min-w-0 space-y-3 lg:order-1">
+      {/* Phones read actions, then the story, then the details; wide screens put the story beside both. */}
+      <div className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_24rem] lg:grid-rows-[auto_1fr] lg:items-start">
+        {canTweak || canUpload ? (
+          <div className="min-w-0 space-y-5 lg:col-start-2 lg:row-start-1">
+            <BuildActions
+              buildId={buildId}
+              canTweak={canTweak}
+              canUpload={canUpload}
+              topology={topology}
+              asBuilt={build.asBuilt}
+              extraCapacitanceF={rev.extraCapacitanceF}
+              windings={rev.windings}
+              tweaks={tweakChoices}
+              defaultTweakId={defaultTweakId}
+            />
+          </div>
+        ) : null}
+        <div className="min-w-0 space-y-3 lg:col-start-1 lg:row-span-2 lg:row-start-1">
           <div className="flex flex-wrap items-end justify-between gap-2">
             <h2 className="text-base font-semibold text-ink">Runs and tweaks</h2>
             <form action={base} method="get" className="flex flex-wrap items-center gap-2" aria-label="Filter runs">
@@ -221,18 +237,7 @@ export default async function BuildPage({ params, searchParams }: Props) {
           )}
         </div>
 
-        <div className="order-1 min-w-0 space-y-5 lg:order-2">
-          <BuildActions
-            buildId={buildId}
-            canTweak={canTweak}
-            canUpload={canUpload}
-            topology={topology}
-            asBuilt={build.asBuilt}
-            extraCapacitanceF={rev.extraCapacitanceF}
-            windings={rev.windings}
-            tweaks={tweakChoices}
-            defaultTweakId={defaultTweakId}
-          />
+        <div className={`min-w-0 space-y-5 lg:col-start-2 ${canTweak || canUpload ? "lg:row-start-2" : "lg:row-start-1"}`}>
           <section aria-labelledby="as-built-heading" className="space-y-1.5">
             <h2 id="as-built-heading" className="text-sm font-semibold text-ink">
               As built now
