@@ -112,6 +112,13 @@ describe("projects and designs", () => {
     expect(res.body.spec.targetHz).toBe(3.4e6);
   });
 
+  it("lets_only_engineers_rename_a_project", async () => {
+    expect((await api().patch(`/api/v1/projects/${projectId}`).set(as("technician")).send({ purpose: "x" })).status).toBe(403);
+    const res = await api().patch(`/api/v1/projects/${projectId}`).set(as("engineer")).send({ purpose: "bench API checks, renamed" });
+    expect(res.status).toBe(200);
+    expect(res.body.purpose).toBe("bench API checks, renamed");
+  });
+
   it("answers_404_for_unknown_ids", async () => {
     expect((await api().get("/api/v1/designs/00000000-0000-4000-8000-000000000000").set(as("viewer"))).status).toBe(404);
     expect((await api().get("/api/v1/runs/not-a-run").set(as("viewer"))).status).toBe(404);
@@ -181,10 +188,12 @@ describe("builds, tweaks and runs", () => {
   it("uploads_through_a_presigned_slot_and_registers_the_run", async () => {
     const body = capture(3.58e6, 9);
     expect((await api().post("/api/v1/uploads").set(as("viewer")).send({ buildId, filename: "slot.csv", sizeBytes: body.length })).status).toBe(403);
+    expect((await api().post("/api/v1/uploads/00000000-0000-4000-8000-000000000000/complete").set(as("viewer")).send({})).status).toBe(403);
     const slot = await api().post("/api/v1/uploads").set(as("technician")).send({ buildId, filename: "slot.csv", sizeBytes: body.length, contentType: "text/csv" });
     expect(slot.status).toBe(201);
     const put = await fetch(slot.body.url, { method: "PUT", headers: slot.body.headers, body: new Uint8Array(body) });
     expect(put.status).toBe(200);
+    expect((await api().post(`/api/v1/uploads/${slot.body.slotId}/complete`).set(as("engineer")).send({})).status).toBe(404);
     const done = await api().post(`/api/v1/uploads/${slot.body.slotId}/complete`).set(as("technician")).send({ note: "via slot" });
     expect(done.status).toBe(201);
     expect(done.body.id).toBe(slot.body.runId);
