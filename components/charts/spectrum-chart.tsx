@@ -97,7 +97,17 @@ export function SpectrumChart({ frequenciesHz, levelsDbv, markers = [], limitDbv
   const options = useMemo<Omit<uPlot.Options, "width" | "height">>(() => {
     const x = unitFor("Hz", frequenciesHz);
     return {
-      scales: { x: { time: false }, y: { auto: true } },
+      scales: {
+        x: { time: false },
+        // Headroom above the fundamental for its label, and the limit line always in view.
+        y: {
+          range: (_u, min, max) => {
+            const lo = Math.min(min, typeof limitDbv === "number" ? limitDbv : min);
+            const hi = Math.max(max, typeof limitDbv === "number" ? limitDbv : max);
+            return [Math.floor((lo - 5) / 10) * 10, Math.ceil((hi + 12) / 10) * 10];
+          },
+        },
+      },
       axes: [
         engineeringAxis("Frequency", x),
         themedAxis({

@@ -11,7 +11,7 @@ import { Card, CardBody, CardHeader } from "@/components/ui/card";
 import { Table, Td, Th, Tr } from "@/components/ui/data-table";
 import { FormMessage } from "@/components/ui/field";
 import { VerdictBadge, type Verdict } from "@/components/ui/verdict-badge";
-import { formatBytes, formatDuration } from "@/lib/format/bytes";
+import { formatBytes } from "@/lib/format/bytes";
 import { formatDateTime } from "@/lib/format/dates";
 import {
   DASH,
@@ -414,14 +414,19 @@ function Metadata({ run, figures, context }: { run: RunData; figures: RunFigures
     ["Probe attenuation", `×${run.probeAttenuation}`],
     ["Supply", run.supplyV === null ? DASH : formatQuantity(run.supplyV, "V", 3, { trimZeros: true })],
     ["Temperature", run.temperatureC === null ? DASH : `${run.temperatureC} °C`],
-    ["Sample rate", formatQuantity(figures.sampleRateHz, "Sa/s", 4, { trimZeros: true })],
-    ["Samples", figures.samples === null ? DASH : figures.samples.toLocaleString("en-GB")],
-    ["Record length", durationS === null ? DASH : formatQuantity(durationS, "s", 4)],
-    ["In-record drift", formatPpm(run.inRecordDriftPpm ?? figures.inRecordDriftPpm)],
-    ["Uploaded", `${formatDateTime(run.createdAt)} by ${run.createdByName}`],
-    ["Analysed", run.finishedAt ? formatDateTime(run.finishedAt, { seconds: true }) : DASH],
-    ["Engine version", run.engineVersion ?? DASH],
   ];
+  // Figures of the record itself exist only once it has been read.
+  if (run.status === "done") {
+    rows.push(
+      ["Sample rate", formatQuantity(figures.sampleRateHz, "Sa/s", 4, { trimZeros: true })],
+      ["Samples", figures.samples === null ? DASH : figures.samples.toLocaleString("en-GB")],
+      ["Record length", durationS === null ? DASH : formatQuantity(durationS, "s", 4)],
+      ["In-record drift", formatPpm(run.inRecordDriftPpm ?? figures.inRecordDriftPpm)],
+    );
+  }
+  rows.push(["Uploaded", `${formatDateTime(run.createdAt)} by ${run.createdByName}`]);
+  if (run.finishedAt) rows.push([run.status === "failed" ? "Tried" : "Analysed", formatDateTime(run.finishedAt, { seconds: true })]);
+  if (run.engineVersion) rows.push(["Engine version", run.engineVersion]);
   if (typeof run.attempts === "number" && run.attempts > 1) rows.push(["Analysis attempts", String(run.attempts)]);
   const parts = Object.entries(run.snapshot.parts);
   const preamble = Object.entries(figures.metadata);
@@ -490,7 +495,6 @@ function Metadata({ run, figures, context }: { run: RunData; figures: RunFigures
           </CardBody>
         </Card>
       </div>
-      {durationS !== null && durationS > 3600 ? <p className="sr-only">{formatDuration(durationS)}</p> : null}
     </div>
   );
 }
