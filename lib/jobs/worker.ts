@@ -2,6 +2,8 @@ import type PgBoss from "pg-boss";
 import { db } from "@/db/index";
 import { notifyFlags } from "@/lib/alerts";
 import { failAbandonedRun, listStaleUnfinishedRuns } from "@/db/queries/runs";
+import { deleteUploadSlot, listExpiredUploadSlots } from "@/db/queries/uploads";
+import { deleteObject } from "@/lib/storage";
 import { jobSettings } from "./config";
 import { createAnalysisPool, type AnalysisPool } from "./pool";
 import { processRun } from "./process-run";
@@ -47,6 +49,20 @@ export async function sweepUnfinishedRuns(olderThanMs: number): Promise<{ requeu
 }
 
 /**
+ * Removes upload slots that expired without being completed, with whatever bytes reached storage for them
+ * (a browser that gave up half-way, a tab closed after the PUT).
+ * @param graceMs how long after expiry a slot is kept (a slow registration may still be on its way)
+ */
+export async function sweepExpiredUploads(graceMs = 3600_000): Promise<number> {
+  const expired = await listExpiredUploadSlots(new Date(Date.now() - graceMs));
+  for (const slot of expired) {
+    await deleteObject(slot.objectKey);
+    await deleteUploadSlot(slot.id);
+  }
+  return expired.length;
+}
+
+/**
  * Starts an analysis worker in this process: pg-boss fetches jobs (one per run id at a time, across every
  * worker on every machine), each job's analysis runs on a piscina thread, results go to PostgreSQL.
  * Maintenance in pg-boss re-queues jobs whose worker died (after ANALYSIS_JOB_TIMEOUT_SECONDS).
@@ -78,8 +94,10 @@ export async function startAnalysisWorker(options: WorkerOptions = {}): Promise<
   const sweepAfterMs = (settings.jobTimeoutSeconds + 60) * 1000;
   const sweep = setInterval(() => {
     sweepUnfinishedRuns(sweepAfterMs)
-      .then((r) => {
+      .then(async (r) => {
         if (r.requeued || r.failed) log(`sweep: ${r.requeued} queued again, ${r.failed} marked failed`);
+        const removed = await sweepExpiredUploads();
+        if (removed) log(`sweep: ${removed} expired uploads removed`);
       })
       .catch((err) => log(`sweep failed: ${err instanceof Error ? err.message : String(err)}`));
   }, SWEEP_EVERY_MS);

@@ -51,7 +51,7 @@ export async function reviseDesign(actor: Actor, designId: string, patch: Design
   const rev = current.revision;
   const parts = { ...rev.parts, ...(patch.parts ?? {}) };
   const extraCapacitanceF = patch.extraCapacitanceF === undefined ? rev.extraCapacitanceF : patch.extraCapacitanceF;
-  const windings = patch.windings === undefined ? rev.windings : patch.windings;
+  const windings = current.topology !== "hartley" ? null : patch.windings === undefined ? rev.windings : patch.windings;
   const fields = designProblemsByField(oscillatorDesign(current.topology, parts, extraCapacitanceF, windings));
   if (Object.keys(fields).length > 0) throw new BadRequestError("The design would not be usable with these values.", fields);
   return uniqueOr(`This project already has a design named “${patch.name}”.`, () =>

@@ -128,11 +128,13 @@ export const designInputSchema = z
   .transform((d, ctx) => {
     const before = ctx.issues.length;
     const parts = parseParts(d.topology, d.parts, ctx, true);
+    // Windings only mean something for a Hartley; a form may still post its select for the others.
+    const windings = d.topology === "hartley" ? (d.windings ?? null) : null;
     const design = {
       topology: d.topology,
       parts,
       ...(d.extraCapacitance !== undefined ? { extraCapacitanceF: d.extraCapacitance } : {}),
-      ...(d.windings ? { windings: d.windings } : {}),
+      ...(windings ? { windings } : {}),
     };
     // Only when every value parsed: the model's checks on half-read parts would repeat the same complaint.
     if (ctx.issues.length === before && Object.keys(parts).length > 0) addDesignProblems(validateDesign(design), ctx);
@@ -141,7 +143,7 @@ export const designInputSchema = z
       topology: d.topology,
       parts,
       extraCapacitanceF: d.extraCapacitance ?? null,
-      windings: d.windings ?? null,
+      windings,
       spec: d.spec,
       changeNote: d.changeNote ?? "",
     };

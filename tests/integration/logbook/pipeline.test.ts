@@ -12,7 +12,7 @@ import { createProject } from "@/lib/logbook/projects";
 import { getRunPlot, getRunView, reanalyseRun, uploadRunFromStream } from "@/lib/logbook/runs";
 import { logTweak } from "@/lib/logbook/tweaks";
 import { cancelUpload, completePhotoUpload, completeUpload, requestPhotoSlot, requestUploadSlot } from "@/lib/logbook/uploads";
-import { sweepUnfinishedRuns } from "@/lib/jobs/worker";
+import { sweepExpiredUploads, sweepUnfinishedRuns } from "@/lib/jobs/worker";
 import { ANALYSIS_QUEUE, QUEUE_SCHEMA } from "@/lib/jobs/queue";
 import { listBuildPhotos } from "@/db/queries/builds";
 import { predictOscillator } from "@/lib/oscillator";
@@ -234,6 +234,16 @@ describe("uploads and the safety sweep", () => {
     expect(await headObject(ticket.key)).toBeNull();
     expect(await getUploadSlot(ticket.slotId)).toBeNull();
     await expect(cancelUpload({ user: engineer }, ticket.slotId)).rejects.toMatchObject({ status: 404 });
+  });
+
+  it("removes_an_expired_upload_that_was_never_registered", async () => {
+    const body = Buffer.from(capture(370_000, 47));
+    const ticket = await requestUploadSlot({ user: technician }, { buildId, filename: "forgotten.csv", sizeBytes: body.length, contentType: "text/csv" });
+    await fetch(ticket.url, { method: "PUT", headers: ticket.headers, body });
+    await db()("upload_slots").where({ id: ticket.slotId }).update({ expires_at: new Date(Date.now() - 2 * 3600_000) });
+    expect(await sweepExpiredUploads()).toBeGreaterThanOrEqual(1);
+    expect(await headObject(ticket.key)).toBeNull();
+    expect(await getUploadSlot(ticket.slotId)).toBeNull();
   });
 
   it("refuses_to_register_a_file_of_another_size_than_announced", async () => {

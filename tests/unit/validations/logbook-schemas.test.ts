@@ -55,6 +55,12 @@ describe("designInputSchema", () => {
     expect(r.data!.parts.k.valueSi).toBeCloseTo(0.3, 12);
   });
 
+  it("ignores_windings_posted_for_a_topology_without_them", () => {
+    const r = designInputSchema.safeParse({ name: "x", topology: "tank", windings: "aiding", parts: { L: { value: "1u" }, C: { value: "1n" } } });
+    expect(r.success).toBe(true);
+    expect(r.data!.windings).toBeNull();
+  });
+
   it("needs_a_target_for_a_tolerance", () => {
     const r = designInputSchema.safeParse({ name: "x", topology: "tank", parts: { L: { value: "1u" }, C: { value: "1n" } }, spec: { toleranceValue: "1" } });
     expect(fieldErrors(r)["spec.targetHz"]).toMatch(/needs a target/);
