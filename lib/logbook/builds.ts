@@ -21,6 +21,7 @@ async function checkBuilder(builtBy: string | undefined, fallback: string): Prom
 
 /**
  * Starts a build of a design (technician and above); its as-built parts are the design's current values.
+ * @param options.at - back-dated creation time (the demo seed's history); the database clock otherwise
  * @throws NotFoundError; ConflictError when the design already has a build with this label
  */
 export async function createBuild(actor: Actor, designId: string, input: BuildInput, options: { at?: Date } = {}): Promise<q.Build> {

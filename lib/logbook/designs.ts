@@ -11,6 +11,7 @@ import { oscillatorDesign, predictDesign } from "./prediction";
 
 /**
  * Creates a design (revision 1) in a project (engineer and above).
+ * @param options.at - back-dated creation time (the demo seed's history); the database clock otherwise
  * @throws NotFoundError for an unknown project; ConflictError for a name taken in the project
  */
 export async function createDesign(actor: Actor, projectId: string, input: DesignInput, options: { at?: Date } = {}): Promise<q.Design> {

@@ -10,6 +10,7 @@ import { predictDesign } from "./prediction";
 
 /**
  * Creates a project owned by the actor (engineer and above).
+ * @param options.at - back-dated creation time (the demo seed's history); the database clock otherwise
  * @throws ForbiddenError/UnauthorizedError; ConflictError when the name is taken
  */
 export async function createProject(actor: Actor, input: ProjectInput, options: { at?: Date } = {}): Promise<q.Project> {
