@@ -113,7 +113,7 @@ function main(argv: string[]): number {
   try {
     const args = parseArguments(argv);
     const capture = importFile(args.file);
-    const { result } = analyzeCapture(capture, { channel: args.channel, harmonics: args.harmonics });
+    const { result } = analyzeCapture(capture, { channel: args.channel, harmonics: args.harmonics, plot: false });
     process.stdout.write(args.json ? JSON.stringify(result) + "\n" : table(result));
     return 0;
   } catch (error) {
@@ -123,5 +123,11 @@ function main(argv: string[]): number {
     return error instanceof UsageError ? 2 : 1;
   }
 }
+
+// A reader that stops early (`| head`) is not an error of ours: end quietly instead of printing a stack.
+process.stdout.on("error", (error: NodeJS.ErrnoException) => {
+  if (error.code === "EPIPE") process.exit(process.exitCode ?? 0);
+  throw error;
+});
 
 process.exitCode = main(process.argv.slice(2));

@@ -113,6 +113,7 @@ export interface AnalysisTimings {
 /** What {@link analyzeCapture} returns: the numbers, and the plot data kept apart so JSON output can leave it out. */
 export interface CaptureAnalysis {
   result: AnalysisResult;
+  /** Plot data (empty arrays when `plot: false` was asked for). */
   plot: PlotData;
   timings?: AnalysisTimings;
 }
@@ -133,6 +134,8 @@ export interface AnalyzeOptions {
   maxFftLength?: number;
   /** Measure each stage's wall time. */
   collectTimings?: boolean;
+  /** Build the plot data (default true); a command that prints only numbers can skip it. */
+  plot?: boolean;
 }
 
 const METHOD: AnalysisMethod = {
@@ -141,6 +144,12 @@ const METHOD: AnalysisMethod = {
     "interpolated FFT peak, then IEEE 1057 four-parameter sine fit, refitted with the fitted harmonics removed; 1-sigma from the residual",
   harmonics: "multi-harmonic least-squares fit at the fitted frequency over the whole record",
   noise: "time-domain residual of the harmonic fit (IEEE 1241 SNR and SINAD)",
+};
+
+const EMPTY_PLOT: PlotData = {
+  waveform: { timeS: [], minV: [], maxV: [], samplesPerPoint: 0 },
+  spectrum: { frequencyHz: [], dBV: [], binsPerPoint: 0, binHz: 0, window: "" },
+  harmonicMarkers: [],
 };
 
 function finiteOrNull(value: number): number | null {
@@ -281,15 +290,18 @@ function analyzeRecord(
   }
   const t8 = now();
 
-  const plot: PlotData = {
-    waveform: waveformEnvelope(y, sampleRateHz, startTimeS, options.waveformPoints ?? 2000),
-    spectrum: spectrumPlot(spectrum, options.spectrumPoints ?? 4000),
-    harmonicMarkers: harmonicFit.orders.map((order, i) => ({
-      order,
-      frequencyHz: order * frequencyHz,
-      dBV: peakToDbv(harmonicFit.amplitudesVpk[i]),
-    })),
-  };
+  const plot: PlotData =
+    options.plot === false
+      ? EMPTY_PLOT
+      : {
+          waveform: waveformEnvelope(y, sampleRateHz, startTimeS, options.waveformPoints ?? 2000),
+          spectrum: spectrumPlot(spectrum, options.spectrumPoints ?? 4000),
+          harmonicMarkers: harmonicFit.orders.map((order, i) => ({
+            order,
+            frequencyHz: order * frequencyHz,
+            dBV: peakToDbv(harmonicFit.amplitudesVpk[i]),
+          })),
+        };
   const t9 = now();
 
   const result: AnalysisResult = {

@@ -48,16 +48,18 @@ interface NormalSums {
 }
 
 // The rotation recurrence drifts by about one ulp per step; an exact restart every so often
-// keeps the columns accurate to ~1e-13 over any record length.
-// A mask, not a modulo (a division per sample). Hot loops copy it to a local: reading a module
-// constant from a function costs a TDZ check on every access.
+// keeps the columns accurate to ~1e-13 over any record length. A mask, not a modulo (a division
+// per sample); hot loops copy it to a local, since reading a module constant inside a function
+// costs a temporal-dead-zone check on every access.
 const RESYNC_MASK = 2047;
+const BLOCK_SAMPLES = 2048;
 
 /**
  * One pass over the span: the 4×4 normal equations of the linearised model about (ω, a, b, c),
- * with m = n − centre, and the residual of the current model.
+ * with m = n − centre, and the residual of the current model, all summed sample by sample.
+ * Used for records of few periods, where the closed forms below lose digits.
  */
-function normalSums(
+function normalSumsByPass(
   y: Float64Array,
   start: number,
   length: number,
@@ -103,6 +105,134 @@ function normalSums(
   }
   const g = Float64Array.of(cc, cs, c1, cd, cs, ss, s1, sd, c1, s1, length, d1, cd, sd, d1, dd);
   return { g, rhs: Float64Array.of(yc, ys, y1, yd), residualSumOfSquares: rss };
+}
+
+/** Σy·cos ωm, Σy·sin ωm, Σy·m·cos ωm, Σy·m·sin ωm over the span: the only sums that need the data. */
+function dataSums(y: Float64Array, start: number, length: number, omega: number): Float64Array {
+  const centre = (length - 1) / 2;
+  const rc = Math.cos(omega);
+  const rs = Math.sin(omega);
+  const block = BLOCK_SAMPLES;
+  let yc = 0;
+  let ys = 0;
+  let ymc = 0;
+  let yms = 0;
+  for (let first = 0; first < length; first += block) {
+    const count = Math.min(block, length - first);
+    const half = count >> 1;
+    // Two halves, two rotation chains the CPU can run side by side (see harmonic-fit.ts).
+    let ma = first - centre;
+    let mb = ma + half;
+    let ac = Math.cos(omega * ma);
+    let as = Math.sin(omega * ma);
+    let bc = Math.cos(omega * mb);
+    let bs = Math.sin(omega * mb);
+    const a0 = start + first;
+    const b0 = a0 + half;
+    let yca = 0, ysa = 0, ymca = 0, ymsa = 0, ycb = 0, ysb = 0, ymcb = 0, ymsb = 0;
+    for (let j = 0; j < half; j++) {
+      const va = y[a0 + j];
+      const vb = y[b0 + j];
+      const pa = va * ac;
+      const qa = va * as;
+      const pb = vb * bc;
+      const qb = vb * bs;
+      yca += pa;
+      ysa += qa;
+      ymca += ma * pa;
+      ymsa += ma * qa;
+      ycb += pb;
+      ysb += qb;
+      ymcb += mb * pb;
+      ymsb += mb * qb;
+      ma += 1;
+      mb += 1;
+      const nextA = ac * rc - as * rs;
+      as = as * rc + ac * rs;
+      ac = nextA;
+      const nextB = bc * rc - bs * rs;
+      bs = bs * rc + bc * rs;
+      bc = nextB;
+    }
+    if (count & 1) {
+      const v = y[a0 + count - 1];
+      ycb += v * bc;
+      ysb += v * bs;
+      ymcb += mb * v * bc;
+      ymsb += mb * v * bs;
+    }
+    yc += yca + ycb;
+    ys += ysa + ysb;
+    ymc += ymca + ymcb;
+    yms += ymsa + ymsb;
+  }
+  return Float64Array.of(yc, ys, ymc, yms);
+}
+
+/**
+ * Sums over the L centred indices m = n − (L−1)/2 in closed form: D(x) = Σcos xm =
+ * sin(Lx/2)/sin(x/2), S(x) = Σm·sin xm = −D′(x), C(x) = Σm²·cos xm = −D″(x).
+ */
+function kernelSums(x: number, length: number): { d: number; s: number; c: number } {
+  const u = x / 2;
+  const big = Math.sin(length * u);
+  const bigPrime = length * Math.cos(length * u);
+  const bigSecond = -length * length * big;
+  const small = Math.sin(u);
+  const smallPrime = Math.cos(u);
+  const smallSecond = -small;
+  const numerator = bigPrime * small - big * smallPrime;
+  const d = big / small;
+  // d/dx = ½ d/du; d²/dx² = ¼ d²/du².
+  const dPrime = (0.5 * numerator) / (small * small);
+  const dSecond = 0.25 * ((bigSecond * small - big * smallSecond) / (small * small) - (2 * smallPrime * numerator) / (small * small * small));
+  return { d, s: -dPrime, c: -dSecond };
+}
+
+/**
+ * The normal equations of the four-parameter fit about (ω, a, b, c) from one pass over the data
+ * and closed forms for everything else. With the index centred, sums of odd functions of m vanish,
+ * so the Gram matrix needs only D, S and C at ω and 2ω; the data enter through four sums, computed
+ * once per ω and reused for every (a, b, c).
+ */
+function makeNormalSums(
+  y: Float64Array,
+  start: number,
+  length: number,
+): (omega: number, a: number, b: number, c: number) => NormalSums {
+  let sumY = 0;
+  let sumY2 = 0;
+  for (let n = 0; n < length; n++) {
+    const v = y[start + n];
+    sumY += v;
+    sumY2 += v * v;
+  }
+  const m2 = (length * (length * length - 1)) / 12;
+  let cachedOmega = NaN;
+  let cached: Float64Array = new Float64Array(4);
+  return (omega, a, b, c) => {
+    // Below a few periods the closed forms cancel badly (they divide by sin²(ω/2)): sum instead.
+    if (omega * length < 8 * Math.PI) return normalSumsByPass(y, start, length, omega, a, b, c);
+    if (omega !== cachedOmega) {
+      cached = dataSums(y, start, length, omega);
+      cachedOmega = omega;
+    }
+    const [yc, ys, ymc, yms] = cached;
+    const k1 = kernelSums(omega, length);
+    const k2 = kernelSums(2 * omega, length);
+    const cc = (length + k2.d) / 2;
+    const ss = (length - k2.d) / 2;
+    const c1 = k1.d;
+    const mcs = k2.s / 2; // Σ m·cos·sin
+    const cd = -a * mcs;
+    const sd = b * mcs;
+    const d1 = -a * k1.s;
+    const dd = (b * b * (m2 + k2.c)) / 2 + (a * a * (m2 - k2.c)) / 2;
+    const yd = b * ymc - a * yms;
+    const g = Float64Array.of(cc, 0, c1, cd, 0, ss, 0, sd, c1, 0, length, d1, cd, sd, d1, dd);
+    const rss = sumY2 - 2 * (a * yc + b * ys + c * sumY) + a * a * cc + b * b * ss + c * c * length + 2 * a * c * c1;
+    return { g, rhs: Float64Array.of(yc, ys, sumY, yd), residualSumOfSquares: Math.max(0, rss) };
+  };
 }
 
 function solveThree(sums: NormalSums): Float64Array {
@@ -171,9 +301,9 @@ function toFit(
 export function fitSine3(y: Float64Array, sampleRateHz: number, frequencyHz: number, options: SineFitOptions = {}): SineFit {
   const { start, length } = spanOf(y, options);
   const omega = (2 * Math.PI * frequencyHz) / sampleRateHz;
-  const first = normalSums(y, start, length, omega, 0, 0, 0);
-  const abc = solveThree(first);
-  const sums = normalSums(y, start, length, omega, abc[0], abc[1], abc[2]);
+  const normalSums = makeNormalSums(y, start, length);
+  const abc = solveThree(normalSums(omega, 0, 0, 0));
+  const sums = normalSums(omega, abc[0], abc[1], abc[2]);
   return toFit(omega, sampleRateHz, abc, sums, 0, true, start, length);
 }
 
@@ -201,12 +331,13 @@ export function fitSine4(
   const binRad = (2 * Math.PI) / length;
   const toleranceRad = (options.toleranceBins ?? 1e-9) * binRad;
   let omega = (2 * Math.PI * initialFrequencyHz) / sampleRateHz;
-  let sums = normalSums(y, start, length, omega, 0, 0, 0);
+  const normalSums = makeNormalSums(y, start, length);
+  let sums = normalSums(omega, 0, 0, 0);
   let abc = solveThree(sums);
   let iterations = 0;
   let converged = false;
   while (iterations < maxIterations) {
-    sums = normalSums(y, start, length, omega, abc[0], abc[1], abc[2]);
+    sums = normalSums(omega, abc[0], abc[1], abc[2]);
     const { x } = solveSymmetric(sums.g, sums.rhs);
     iterations++;
     const step = Math.max(-binRad / 2, Math.min(binRad / 2, x[3]));

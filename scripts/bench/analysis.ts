@@ -4,6 +4,7 @@
  * Generates (once, into the git-ignored bench-data/) a 1,000,000-sample and a 10,000,000-sample
  * three-column capture, then measures, as whole processes alternating with each other:
  *   - `npm run -s analyze -- FILE --json` (the command as package.json runs it),
+ *   - the same through npm with the proposed package.json line `node scripts/run-analyze.mjs`,
  *   - `node scripts/run-analyze.mjs FILE --json` (the same command without tsx's start-up),
  *   - `/usr/bin/python3 ../shared/bench/refpipe.py FILE` (pandas + numpy),
  * and prints medians of wall time and peak RSS, the ratios, and the stages of a cold run
@@ -12,9 +13,9 @@
  *   npm run bench [-- --runs N] [-- --skip-10m]
  */
 import { spawnSync } from "node:child_process";
-import { existsSync } from "node:fs";
+import { existsSync, mkdirSync, writeFileSync } from "node:fs";
 import path from "node:path";
-import { ensureBenchCapture } from "./capture-files";
+import { BENCH_DATA_DIR, ensureBenchCapture } from "./capture-files";
 
 const ROOT = path.resolve(import.meta.dirname, "../..");
 const PYTHON = "/usr/bin/python3";
@@ -61,6 +62,18 @@ function pythonStatus(): string | undefined {
   if (!existsSync(REFPIPE)) return `${REFPIPE} not found`;
   const probe = spawnSync(PYTHON, ["-c", "import numpy, pandas"], { encoding: "utf8" });
   return probe.status === 0 ? undefined : "python3-numpy/python3-pandas are not installed (apt-get install -y python3-numpy python3-pandas)";
+}
+
+/**
+ * A throw-away npm project in bench-data/ whose "analyze" script is the line proposed for
+ * package.json, so npm's own start-up is measured exactly as it would be after the change.
+ */
+function proposedNpmProject(): string {
+  const dir = path.join(BENCH_DATA_DIR, "npm-proposed");
+  mkdirSync(dir, { recursive: true });
+  const script = `node ${JSON.stringify(path.join(ROOT, "scripts/run-analyze.mjs"))}`;
+  writeFileSync(path.join(dir, "package.json"), JSON.stringify({ name: "tankbook-bench-proposed", private: true, scripts: { analyze: script } }, null, 2));
+  return dir;
 }
 
 function measure(contenders: Contender[], runs: number): Map<string, Sample[]> {
@@ -123,8 +136,13 @@ async function main(): Promise<void> {
   const missingPython = pythonStatus();
   if (missingPython) console.log(`\nreference pipeline unavailable: ${missingPython}; printing our own figures only`);
 
+  const proposed = proposedNpmProject();
   const contenders = (file: string): Contender[] => [
     { label: "npm run -s analyze -- FILE --json", command: ["npm", "run", "-s", "analyze", "--", file, "--json"] },
+    {
+      label: "same, proposed line (node scripts/run-analyze.mjs)",
+      command: ["npm", "run", "-s", "--prefix", proposed, "analyze", "--", file, "--json"],
+    },
     { label: "node scripts/run-analyze.mjs FILE --json", command: [process.execPath, path.join(ROOT, "scripts/run-analyze.mjs"), file, "--json"] },
     ...(missingPython ? [] : [{ label: "refpipe.py FILE", command: [PYTHON, REFPIPE, file] }]),
   ];
