@@ -157,7 +157,7 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
                       {role.required ? "" : " (optional)"}
                     </span>
                   </legend>
-                  <div className="grid gap-3 sm:grid-cols-3">
+                  <div className="grid grid-cols-[1.3fr_1fr_1fr] gap-2 sm:gap-3">
                     <Field id={`${base}-value`} label={unit ? `Value (${unit})` : "Value"} errors={errorsFor(`parts.${ref}.value`, part.value)}>
                       <Input
                         id={`${base}-value`}
