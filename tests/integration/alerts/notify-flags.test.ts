@@ -36,7 +36,7 @@ describe("notifyFlags", () => {
     expect(m.subject).toMatch(/^Spec flag on BB-<alert>&1 \(Colpitts [0-9a-f]{8}\): harmonic 2$/);
     // fixtures.finishRun stores the frequency check (passed) and one check per failing rule: 1 of 2 failed.
     expect(m.text).toContain("failed its spec: 1 of 2 checks failed");
-    expect(m.text).toContain(`http://127.0.0.1:3000/runs/${runId}`);
+    expect(m.text).toContain(`${env().APP_URL.replace(/\/+$/, "")}/runs/${runId}`);
     expect(m.text).toContain("harmonic 2: harmonic-2 at -35.2 against -40: outside.");
     expect(m.text).toContain("you created or built this build");
     // Escaped in the HTML part (renderEmail): the label's < > & never reach the markup raw.
