@@ -70,22 +70,6 @@ export async function updateBuild(
   );
 }
 
-/** Accepts, rejects or reopens a build with a comment (engineer and above). */
-export async function reviewBuild(actor: Actor, buildId: string, review: { status: q.BuildStatus; comment?: string }): Promise<q.Build> {
-  const user = requirePermission(actor.user, "build:review");
-  if (!isId(buildId)) throw new NotFoundError("The build");
-  return db().transaction(async (trx) => {
-    const build = await q.updateBuildReview(
-      buildId,
-      { status: review.status, comment: review.comment ?? null, reviewedBy: review.status === "open" ? null : user.id },
-      trx,
-    );
-    if (!build) throw new NotFoundError("The build");
-    await audit({ ...actor, user }, `build.${review.status === "open" ? "reopened" : review.status}`, { type: "build", id: buildId }, { comment: review.comment ?? null }, trx);
-    return build;
-  });
-}
-
 /** @throws NotFoundError */
 export async function getBuild(user: CurrentUser | null, buildId: string): Promise<q.Build> {
   requirePermission(user, "read");

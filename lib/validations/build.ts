@@ -25,16 +25,6 @@ export const buildPatchSchema = z.object({
   builtBy: optionalText(64, "The builder"),
 });
 
-/** Accept or reject a build (engineer and above), or reopen it. */
-export const buildReviewSchema = z
-  .object({
-    status: z.enum(BUILD_STATUSES, { error: "The review is accepted, rejected or open." }),
-    comment: optionalText(2000, "The comment"),
-  })
-  .superRefine((r, ctx) => {
-    if (r.status === "rejected" && !r.comment) ctx.addIssue({ code: "custom", path: ["comment"], message: "Say why the build is rejected." });
-  });
-
 export const buildListQuerySchema = pageQuerySchema.extend({
   q: optionalText(200, "The search"),
   status: z.preprocess((v) => (v === "" ? undefined : v), z.enum(BUILD_STATUSES).optional()),

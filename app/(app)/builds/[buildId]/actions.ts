@@ -8,10 +8,9 @@ import { getCurrentUser } from "@/lib/auth/current-user";
 import { requestMeta } from "@/lib/auth/request-meta";
 import { zodFields } from "@/lib/http/problem";
 import { failedForm, formObject, invalidForm } from "@/lib/logbook/action-helpers";
-import { reviewBuild } from "@/lib/logbook/builds";
 import { applyPlannedTweak, logTweak } from "@/lib/logbook/tweaks";
 import { cancelUpload, completePhotoUpload, completeUpload, requestPhotoSlot, requestUploadSlot } from "@/lib/logbook/uploads";
-import { buildReviewSchema, photoSlotRequestSchema } from "@/lib/validations/build";
+import { photoSlotRequestSchema } from "@/lib/validations/build";
 import { idSchema } from "@/lib/validations/common";
 import { runMetadataSchema, uploadSlotRequestSchema } from "@/lib/validations/run";
 
@@ -93,20 +92,6 @@ export async function cancelUploadAction(slotId: string): Promise<{ ok: boolean 
     return { ok: true };
   } catch {
     return { ok: false };
-  }
-}
-
-/** Accepts, rejects or reopens the build (engineer and above); bind the build id. Fields: status, comment. */
-export async function reviewBuildAction(buildId: string, _prev: FormState, formData: FormData): Promise<FormState> {
-  try {
-    const parsed = buildReviewSchema.safeParse(formObject(formData));
-    if (!parsed.success) return invalidForm(parsed.error, formData);
-    const build = await reviewBuild(await actor(), buildId, parsed.data);
-    revalidatePath(`/builds/${buildId}`);
-    revalidatePath(`/projects/${build.projectId}/designs/${build.designId}`);
-    return { ok: true, message: build.status === "open" ? "The build is open again." : `Build ${build.status}.` };
-  } catch (err) {
-    return failedForm(err, formData);
   }
 }
 
