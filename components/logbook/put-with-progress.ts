@@ -46,11 +46,14 @@ export function putWithProgress(
   const xhr = new XMLHttpRequest();
   const samples: Array<{ t: number; loaded: number }> = [];
   let cancelled = false;
+  // Some browsers deliver a queued progress event after abort or load; nothing is reported once settled.
+  let settled = false;
 
   const done = new Promise<void>((resolve, reject) => {
     xhr.open("PUT", url);
     for (const [name, value] of Object.entries(headers)) xhr.setRequestHeader(name, value);
     xhr.upload.onprogress = (event) => {
+      if (settled) return;
       const now = performance.now();
       samples.push({ t: now, loaded: event.loaded });
       while (samples.length > 2 && now - samples[0].t > RATE_WINDOW_MS) samples.shift();
@@ -66,13 +69,22 @@ export function putWithProgress(
       });
     };
     xhr.onload = () => {
+      settled = true;
       if (xhr.status >= 200 && xhr.status < 300) resolve();
       else reject(new Error(`Storage refused the file (HTTP ${xhr.status}). Try again; if it keeps failing, tell your admin.`));
     };
-    xhr.onerror = () =>
+    xhr.onerror = () => {
+      settled = true;
       reject(new Error("The connection to storage failed during the upload. Check the network and try again."));
-    xhr.onabort = () => reject(new UploadCancelledError());
-    xhr.ontimeout = () => reject(new Error("The upload timed out. Try again."));
+    };
+    xhr.onabort = () => {
+      settled = true;
+      reject(new UploadCancelledError());
+    };
+    xhr.ontimeout = () => {
+      settled = true;
+      reject(new Error("The upload timed out. Try again."));
+    };
     xhr.send(file);
   });
 
@@ -81,6 +93,7 @@ export function putWithProgress(
     cancel: () => {
       if (!cancelled) {
         cancelled = true;
+        settled = true;
         xhr.abort();
       }
     },

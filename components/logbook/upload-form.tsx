@@ -189,9 +189,9 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
       return;
     }
 
-    const handle = putWithProgress(slot.uploadUrl, file, slot.headers ?? {}, (progress) =>
-      setPhase({ kind: "uploading", progress }),
-    );
+    const handle = putWithProgress(slot.uploadUrl, file, slot.headers ?? {}, (progress) => {
+      if (uploadRef.current === handle) setPhase({ kind: "uploading", progress });
+    });
     uploadRef.current = handle;
     try {
       await handle.done;
@@ -451,11 +451,22 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
 
       <div className="flex flex-wrap items-center gap-2">
         {phase.kind === "uploading" ? (
-          <Button variant="danger" onClick={() => uploadRef.current?.cancel()}>
+          // Distinct keys: reusing one <button> would turn it into the submit button while this click is still
+          // being handled (abort settles synchronously), and the browser would then submit the form again.
+          <Button
+            key="cancel"
+            variant="danger"
+            onClick={(event) => {
+              event.preventDefault();
+              const handle = uploadRef.current;
+              uploadRef.current = null;
+              handle?.cancel();
+            }}
+          >
             Cancel upload
           </Button>
         ) : (
-          <Button type="submit" disabled={busy || !file || phase.kind === "duplicate" || phase.kind === "done"}>
+          <Button key="submit" type="submit" disabled={busy || !file || phase.kind === "duplicate" || phase.kind === "done"}>
             Upload and analyse
           </Button>
         )}
