@@ -8,6 +8,7 @@ import { registerBuildPaths } from "./paths/builds";
 import { registerDesignPaths } from "./paths/designs";
 import { registerMetaPaths } from "./paths/meta";
 import { registerProjectPaths } from "./paths/projects";
+import { registerReviewPaths } from "./paths/reviews";
 import { registerRunPaths } from "./paths/runs";
 import { registerUploadPaths } from "./paths/uploads";
 
@@ -43,6 +44,7 @@ export function buildOpenApiDocument(): { document: OpenApiDocument; stale: stri
   registerBuildPaths(registry);
   registerRunPaths(registry);
   registerUploadPaths(registry);
+  registerReviewPaths(registry);
   registerMetaPaths(registry);
 
   const components = [...namedSchemas.values()].map((schema) => ({ type: "schema" as const, schema }));

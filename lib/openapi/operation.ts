@@ -45,7 +45,7 @@ export const duplicateCapture = (description: string): ProblemNote => ({ descrip
 export const ROLE_EXTENSION = "x-tankbook-minimum-role";
 
 export interface OperationSpec {
-  method: "get" | "post" | "patch" | "delete";
+  method: "get" | "post" | "put" | "patch" | "delete";
   /** OpenAPI form with the /api/v1 prefix: /api/v1/runs/{runId}. */
   path: string;
   operationId: string;
@@ -126,8 +126,15 @@ export function registerOperation(registry: OpenAPIRegistry, spec: OperationSpec
 }
 
 /** A JSON request body from a lib/validations schema, under its component name. */
-export function jsonBody(schema: z.ZodType, refId: string, description?: string): NonNullable<RouteConfig["request"]>["body"] {
-  return { required: true, content: { "application/json": { schema: documented(schema, { refId, description }) } } };
+export function jsonBody(
+  schema: z.ZodType,
+  refId: string,
+  options: { required?: boolean; example?: unknown } = {},
+): NonNullable<RouteConfig["request"]>["body"] {
+  return {
+    required: options.required ?? true,
+    content: { "application/json": { schema: documented(schema, { refId }), ...(options.example !== undefined ? { example: options.example } : {}) } },
+  };
 }
 
 /** A JSON response. */

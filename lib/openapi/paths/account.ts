@@ -1,6 +1,7 @@
 import type { OpenAPIRegistry } from "@asteasolutions/zod-to-openapi";
 import { z } from "zod";
 import { signInSchema } from "@/lib/validations/auth";
+import { REQUEST_EXAMPLES } from "../examples";
 import { jsonBody, jsonResponse, registerOperation } from "../operation";
 import { meSchema, sessionCreatedSchema } from "../schemas/account";
 
@@ -25,7 +26,7 @@ export function registerAccountPaths(registry: OpenAPIRegistry): void {
       "Signs in with e-mail and password and sets the session cookie. JSON only, so no cross-site form can post it. " +
       "Failed sign-ins are throttled per account and per address. Scripts should use an API token instead.",
     action: null,
-    body: jsonBody(signInSchema, "SignIn"),
+    body: jsonBody(signInSchema, "SignIn", { example: REQUEST_EXAMPLES.createSession }),
     responses: {
       201: jsonResponse(sessionCreatedSchema, "Signed in; the session cookie is in Set-Cookie.", z.object({ "Set-Cookie": z.string().describe("The session cookie (HttpOnly, Secure, SameSite=Lax).") })),
     },

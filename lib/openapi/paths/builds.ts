@@ -4,6 +4,7 @@ import { TOPOLOGIES } from "@/lib/oscillator";
 import { idempotencyKeySchema, runListQuerySchema, runMetadataSchema } from "@/lib/validations/run";
 import { tweakInputSchemaFor } from "@/lib/validations/tweak";
 import { documented } from "../documented";
+import { REQUEST_EXAMPLES } from "../examples";
 import { duplicateCapture, jsonBody, jsonResponse, locationHeader, pathId, registerOperation } from "../operation";
 import { buildDetailSchema } from "../schemas/build";
 import { runAcceptedSchema, runPageSchema } from "../schemas/run";
@@ -57,7 +58,7 @@ export function registerBuildPaths(registry: OpenAPIRegistry): void {
     action: "tweak:create",
     params: buildParams,
     // The body's shape is the same for every topology; only how the value is read (F or H) depends on it.
-    body: jsonBody(tweakInputSchemaFor(TOPOLOGIES[0]), "TweakInput"),
+    body: jsonBody(tweakInputSchemaFor(TOPOLOGIES[0]), "TweakInput", { example: REQUEST_EXAMPLES.logTweak }),
     responses: { 201: jsonResponse(tweakSchema, "The tweak logged.", locationHeader("the build's tweak log")) },
   });
   registerOperation(registry, {

@@ -3,6 +3,7 @@ import { z } from "zod";
 import { TOPOLOGIES } from "@/lib/oscillator";
 import { buildInputSchema, buildListQuerySchema } from "@/lib/validations/build";
 import { designPatchSchemaFor } from "@/lib/validations/design";
+import { REQUEST_EXAMPLES } from "../examples";
 import { jsonBody, jsonResponse, locationHeader, pathId, registerOperation } from "../operation";
 import { buildPageSchema, buildSchema } from "../schemas/build";
 import { designDetailSchema, designSchema } from "../schemas/design";
@@ -33,7 +34,7 @@ export function registerDesignPaths(registry: OpenAPIRegistry): void {
     action: "design:write",
     params: designParams,
     // The body's shape is the same for every topology; only how part values are read (F or H) depends on it.
-    body: jsonBody(designPatchSchemaFor(TOPOLOGIES[0]), "DesignPatch"),
+    body: jsonBody(designPatchSchemaFor(TOPOLOGIES[0]), "DesignPatch", { example: REQUEST_EXAMPLES.reviseDesign }),
     responses: { 200: jsonResponse(designSchema, "The design at its new revision.") },
     problems: { 400: "A field failed validation, or the merged design would not be usable (see `fields`).", 409: "The project already has a design with this name." },
   });
@@ -58,7 +59,7 @@ export function registerDesignPaths(registry: OpenAPIRegistry): void {
     description: "A new prototype of the design; its as-built values start as the design's current ones.",
     action: "build:create",
     params: designParams,
-    body: jsonBody(buildInputSchema, "BuildInput"),
+    body: jsonBody(buildInputSchema, "BuildInput", { example: REQUEST_EXAMPLES.createBuild }),
     responses: { 201: jsonResponse(buildSchema, "The build created.", locationHeader("the new build")) },
     problems: { 409: "The design already has a build with this label." },
   });

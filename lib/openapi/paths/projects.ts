@@ -3,6 +3,7 @@ import { z } from "zod";
 import { designInputSchema, designListQuerySchema } from "@/lib/validations/design";
 import { projectInputSchema, projectListQuerySchema, projectPatchSchema } from "@/lib/validations/project";
 import { partReferences } from "./part-references";
+import { REQUEST_EXAMPLES } from "../examples";
 import { jsonBody, jsonResponse, locationHeader, pathId, registerOperation } from "../operation";
 import { designPageSchema, designSchema } from "../schemas/design";
 import { projectPageSchema, projectSchema } from "../schemas/project";
@@ -28,7 +29,7 @@ export function registerProjectPaths(registry: OpenAPIRegistry): void {
     tag: "Projects",
     summary: "Create a project",
     action: "project:write",
-    body: jsonBody(projectInputSchema, "ProjectInput"),
+    body: jsonBody(projectInputSchema, "ProjectInput", { example: REQUEST_EXAMPLES.createProject }),
     responses: { 201: jsonResponse(projectSchema, "The project created.", locationHeader("the new project")) },
     problems: { 409: "A project with this name exists already." },
   });
@@ -50,7 +51,7 @@ export function registerProjectPaths(registry: OpenAPIRegistry): void {
     summary: "Rename a project or change its purpose",
     action: "project:write",
     params: projectParams,
-    body: jsonBody(projectPatchSchema, "ProjectPatch"),
+    body: jsonBody(projectPatchSchema, "ProjectPatch", { example: REQUEST_EXAMPLES.updateProject }),
     responses: { 200: jsonResponse(projectSchema, "The project as changed.") },
     problems: { 409: "A project with this name exists already." },
   });
@@ -78,7 +79,7 @@ export function registerProjectPaths(registry: OpenAPIRegistry): void {
       `by topology: ${partReferences()}.`,
     action: "design:write",
     params: projectParams,
-    body: jsonBody(designInputSchema, "DesignInput"),
+    body: jsonBody(designInputSchema, "DesignInput", { example: REQUEST_EXAMPLES.createDesign }),
     responses: { 201: jsonResponse(designSchema, "The design created, with its prediction.", locationHeader("the new design")) },
     problems: { 409: "The project already has a design with this name." },
   });

@@ -2,6 +2,7 @@ import type { OpenAPIRegistry } from "@asteasolutions/zod-to-openapi";
 import { z } from "zod";
 import { uploadCompleteSchema, uploadSlotRequestSchema } from "@/lib/validations/run";
 import { documented } from "../documented";
+import { REQUEST_EXAMPLES } from "../examples";
 import { duplicateCapture, jsonBody, jsonResponse, locationHeader, pathId, registerOperation } from "../operation";
 import { isoTime, rowId } from "../schemas/common";
 import { runAcceptedSchema } from "../schemas/run";
@@ -28,7 +29,7 @@ export function registerUploadPaths(registry: OpenAPIRegistry): void {
     summary: "Ask for a presigned upload",
     description: "Step 1 of 2: PUT the file to `url` with `headers` (straight to object storage), then complete the upload.",
     action: "run:upload",
-    body: jsonBody(uploadSlotRequestSchema, "UploadSlotRequest"),
+    body: jsonBody(uploadSlotRequestSchema, "UploadSlotRequest", { example: REQUEST_EXAMPLES.requestUploadSlot }),
     responses: { 201: jsonResponse(uploadSlotSchema, "The slot.") },
     problems: {
       404: "The build does not exist.",
@@ -45,7 +46,7 @@ export function registerUploadPaths(registry: OpenAPIRegistry): void {
     description: "Step 2 of 2: checks the stored object and records the run (same fields as the multipart upload).",
     action: "run:upload",
     params: z.object({ slotId: pathId("upload slot") }),
-    body: jsonBody(uploadCompleteSchema, "UploadComplete"),
+    body: jsonBody(uploadCompleteSchema, "UploadComplete", { example: REQUEST_EXAMPLES.completeUpload }),
     responses: { 201: jsonResponse(runAcceptedSchema, "The run created and queued for analysis.", locationHeader("the run")) },
     problems: {
       400: "A field failed validation, the slot expired, or the file has not arrived in storage.",
