@@ -111,7 +111,7 @@ export function captureCsv(frequencyHz: number, seed: number, extra: Partial<Syn
 /** Uploads a capture through the multipart route. */
 export function uploadCapture(
   buildId: string,
-  who: { token: string },
+  who: { token: string } | null,
   csv: string | Buffer,
   fields: Record<string, string> = {},
   options: { filename?: string; contentType?: string; idempotencyKey?: string } = {},
