@@ -1,0 +1,4 @@
+/** A build's story across its runs: the implied-capacitance trend, the timeline chart series, run comparison. Pure. */
+export * from "./implied-capacitance";
+export * from "./timeline";
+export * from "./run-comparison";

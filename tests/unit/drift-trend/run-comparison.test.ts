@@ -1,0 +1,78 @@
+import { describe, expect, it } from "vitest";
+import { compareRuns, type ComparableRun } from "@/lib/drift-trend/run-comparison";
+
+function figures(over: Partial<ComparableRun> = {}): ComparableRun {
+  return {
+    measuredHz: 390_000,
+    frequencyUncertaintyHz: 0.3,
+    predictedHz: 369_000,
+    driftPpm: 56_911,
+    impliedExtraCapacitanceF: -190e-12,
+    fundamentalVpk: 1.1,
+    thdPercent: 1.7,
+    worstHarmonicDbc: -36,
+    sinadDb: 34,
+    snrDb: 50,
+    sfdrDb: 36,
+    inRecordDriftPpm: 3,
+    harmonics: [
+      { order: 2, dBc: -36 },
+      { order: 3, dBc: -44 },
+    ],
+    ...over,
+  };
+}
+
+describe("compareRuns", () => {
+  it("every_figure_has_a_row_with_b_minus_a", () => {
+    const c = compareRuns(figures(), figures({ measuredHz: 382_600, thdPercent: 10.2 }));
+    const byKey = Object.fromEntries(c.rows.map((r) => [r.key, r]));
+    expect(byKey.measuredHz.change).toBeCloseTo(-7400, 9);
+    expect(byKey.thdPercent.change).toBeCloseTo(8.5, 9);
+    expect(byKey.thdPercent.better).toBe("a");
+    expect(c.rows.map((r) => r.key)).toContain("harmonic-3");
+  });
+
+  it("the_frequency_change_in_ppm_and_its_significance", () => {
+    // 390000 → 389999: −2.564 ppm; combined u = √(0.3² + 0.4²) = 0.5 Hz; 1 Hz > 2 × 0.5 Hz is false (edge equality).
+    const c = compareRuns(figures({ frequencyUncertaintyHz: 0.3 }), figures({ measuredHz: 389_999, frequencyUncertaintyHz: 0.4 }));
+    expect(c.frequencyChangePpm).toBeCloseTo((-1 / 390_000) * 1e6, 9);
+    expect(c.frequencyChangeUncertaintyHz).toBeCloseTo(0.5, 12);
+    expect(c.frequencyChangeSignificant).toBe(false);
+    const moved = compareRuns(figures(), figures({ measuredHz: 389_998.9, frequencyUncertaintyHz: 0.4 }));
+    expect(moved.frequencyChangeSignificant).toBe(true);
+  });
+
+  it("drift_is_better_closer_to_zero_whatever_its_sign", () => {
+    const c = compareRuns(figures({ driftPpm: -500 }), figures({ driftPpm: 200 }));
+    expect(c.rows.find((r) => r.key === "driftPpm")!.better).toBe("b");
+  });
+
+  it("sinad_is_better_higher", () => {
+    const c = compareRuns(figures({ sinadDb: 30 }), figures({ sinadDb: 40 }));
+    expect(c.rows.find((r) => r.key === "sinadDb")!.better).toBe("b");
+  });
+
+  it("changes_within_display_resolution_are_the_same", () => {
+    const c = compareRuns(figures({ worstHarmonicDbc: -36.0 }), figures({ worstHarmonicDbc: -36.04 }));
+    expect(c.rows.find((r) => r.key === "worstHarmonicDbc")!.better).toBe("same");
+  });
+
+  it("a_harmonic_only_one_run_has_shows_with_no_change", () => {
+    const c = compareRuns(figures({ harmonics: [{ order: 2, dBc: -36 }] }), figures({ harmonics: [{ order: 2, dBc: -38 }, { order: 4, dBc: -60 }] }));
+    const h4 = c.rows.find((r) => r.key === "harmonic-4")!;
+    expect(h4).toMatchObject({ a: null, b: -60, change: null, better: null });
+  });
+
+  it("missing_figures_give_null_changes_and_no_significance", () => {
+    const c = compareRuns(figures({ measuredHz: null }), figures());
+    expect(c.rows.find((r) => r.key === "measuredHz")!.change).toBeNull();
+    expect(c.frequencyChangePpm).toBeNull();
+    expect(c.frequencyChangeSignificant).toBeNull();
+  });
+
+  it("frequency_has_no_better_side", () => {
+    const c = compareRuns(figures(), figures({ measuredHz: 370_000 }));
+    expect(c.rows.find((r) => r.key === "measuredHz")!.better).toBeNull();
+  });
+});
