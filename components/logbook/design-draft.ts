@@ -4,7 +4,7 @@
  * while typing is what the server will store and predict.
  */
 import type { DesignRevision } from "@/db/queries/designs";
-import { designInputSchema, type DesignInput } from "@/lib/validations/design";
+import { designInputSchema, designSpecSchema, type DesignInput } from "@/lib/validations/design";
 import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
 import { TOPOLOGY_PARTS, partUnit, type Topology } from "@/lib/oscillator/design";
 import { formatEngineering } from "@/lib/oscillator/units";
@@ -119,39 +119,59 @@ export function draftFields(draft: DesignDraft): Array<[string, string]> {
   return out;
 }
 
-export type DesignPreview =
-  | { ok: true; input: DesignInput; report: DesignReport }
-  | { ok: false; problems: Record<string, string[]>; incomplete: boolean };
+export interface DesignPreview {
+  /** The prediction, when the parts make a valid design (a spec problem does not hold it back). */
+  report: DesignReport | null;
+  /** The parsed design, SI units, when both parts and spec are valid. */
+  input: DesignInput | null;
+  /** Problems keyed by dotted field path ("parts.C1.value", "spec.targetHz"). */
+  problems: Record<string, string[]>;
+  /** True when the only problems are required part values not typed yet. */
+  incomplete: boolean;
+}
+
+function collect(issues: ReadonlyArray<{ path: PropertyKey[]; message: string }>, prefix: string, into: Record<string, string[]>): void {
+  for (const issue of issues) {
+    const key = [prefix, ...issue.path.map(String)].filter(Boolean).join(".") || "form";
+    (into[key] ??= []).push(issue.message);
+  }
+}
 
 /**
- * Checks the draft with the server's schema and, when it is a valid design, predicts it.
+ * Checks the draft with the server's schema and predicts it. Parts and spec are checked apart, so a bad spec field
+ * does not hide the part problems (the schema stops at the first failing object) nor the prediction.
  *
  * @param draft - the form as typed; the name does not affect the prediction.
- * @returns the report (f0, C_eff, L_eff, β, minimum gain, worst-case and statistical bands, assumptions), or the
- *   problems keyed by dotted field path; `incomplete` is true when the only problems are required values not yet typed.
+ * @returns the report (f0, C_eff, L_eff, β, minimum gain, worst-case and statistical bands, assumptions) when the
+ *   parts are valid, the problems by dotted field path, and whether the only problems are values not typed yet.
  */
 export function previewDesign(draft: DesignDraft): DesignPreview {
-  const parsed = designInputSchema.safeParse({ ...draft, name: draft.name.trim() || "preview" });
-  if (!parsed.success) {
-    const problems: Record<string, string[]> = {};
-    let allMissing = true;
-    for (const issue of parsed.error.issues) {
-      const key = issue.path.map(String).join(".") || "form";
-      (problems[key] ??= []).push(issue.message);
-      if (!/^Enter the value of/.test(issue.message)) allMissing = false;
+  const problems: Record<string, string[]> = {};
+  const partsOnly = designInputSchema.safeParse({
+    ...draft,
+    name: draft.name.trim() || "preview",
+    spec: { toleranceUnit: draft.spec.toleranceUnit },
+  });
+  const spec = designSpecSchema.safeParse(draft.spec);
+  if (!partsOnly.success) collect(partsOnly.error.issues, "", problems);
+  if (!spec.success) collect(spec.error.issues, "spec", problems);
+  const incomplete =
+    Object.keys(problems).length > 0 && Object.values(problems).flat().every((m) => /^Enter the value of/.test(m));
+
+  let report: DesignReport | null = null;
+  if (partsOnly.success) {
+    const d = partsOnly.data;
+    try {
+      report = buildDesignReport({
+        topology: d.topology,
+        parts: d.parts,
+        ...(d.extraCapacitanceF ? { extraCapacitanceF: d.extraCapacitanceF } : {}),
+        ...(d.windings ? { windings: d.windings } : {}),
+      });
+    } catch (err) {
+      (problems.parts ??= []).push(err instanceof Error ? err.message : "The model refused these values.");
     }
-    return { ok: false, problems, incomplete: allMissing };
   }
-  try {
-    const input = parsed.data;
-    const report = buildDesignReport({
-      topology: input.topology,
-      parts: input.parts,
-      ...(input.extraCapacitanceF ? { extraCapacitanceF: input.extraCapacitanceF } : {}),
-      ...(input.windings ? { windings: input.windings } : {}),
-    });
-    return { ok: true, input, report };
-  } catch (err) {
-    return { ok: false, problems: { parts: [err instanceof Error ? err.message : "The model refused these values."] }, incomplete: false };
-  }
+  const input = partsOnly.success && spec.success && report ? { ...partsOnly.data, spec: spec.data } : null;
+  return { report, input, problems, incomplete };
 }

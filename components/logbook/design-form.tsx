@@ -50,7 +50,7 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
   const [draft, setDraft] = useState<DesignDraft>(initialDraft);
   const deferred = useDeferredValue(draft);
   const preview = useMemo(() => previewDesign(deferred), [deferred]);
-  const problems = preview.ok ? {} : preview.problems;
+  const problems = preview.problems;
   const serverErrors = state.errors ?? {};
 
   /** Server errors always show; live problems only once the field has something in it. */
@@ -65,9 +65,9 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
     setDraft((d) => ({ ...d, parts: { ...d.parts, [ref]: { ...d.parts[ref], ...patch } } }));
   const setSpec = (patch: Partial<SpecDraft>) => setDraft((d) => ({ ...d, spec: { ...d.spec, ...patch } }));
   const roles = TOPOLOGY_PARTS[draft.topology];
-  const generalPartErrors = [...(serverErrors.parts ?? []), ...(preview.ok ? [] : (problems.parts ?? []))];
+  const generalPartErrors = [...new Set([...(serverErrors.parts ?? []), ...(problems.parts ?? [])])];
 
-  const summary = preview.ok ? (
+  const summary = preview.report ? (
     <p className="num font-mono text-sm text-ink">
       f0 = <strong>{formatQuantity(preview.report.predictedHz, "Hz", 6)}</strong>
       <span className="text-ink-faint">
@@ -282,7 +282,7 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
         <Card className="lg:sticky lg:top-4">
           <CardHeader title="Prediction" description="Updates as you type." />
           <CardBody aria-live="polite">
-            {preview.ok ? <PredictionPanel report={preview.report} /> : summary}
+            {preview.report ? <PredictionPanel report={preview.report} /> : summary}
           </CardBody>
         </Card>
       </aside>

@@ -29,8 +29,8 @@ describe("switchTopology", () => {
 describe("previewDesign", () => {
   it("valid_colpitts_predicts_f0", () => {
     const p = previewDesign(colpittsDraft());
-    expect(p.ok).toBe(true);
-    if (!p.ok) return;
+    expect(p.problems).toEqual({});
+    if (!p.report) throw new Error("expected a report");
     // C_eff = 1n·10n/11n = 0.9091 nF; f0 = 1/(2π√(15 µH · 0.9091 nF)) ≈ 1.3629 MHz (lib/oscillator's own example)
     expect(p.report.predictedHz).toBeCloseTo(1.3629e6, -2);
     expect(p.report.cEffF).toBeCloseTo(1e-9 / 1.1, 15);
@@ -40,8 +40,7 @@ describe("previewDesign", () => {
 
   it("missing_values_are_incomplete_not_wrong", () => {
     const p = previewDesign(emptyDraft("tank"));
-    expect(p.ok).toBe(false);
-    if (p.ok) return;
+    expect(p.report).toBeNull();
     expect(p.incomplete).toBe(true);
     expect(Object.keys(p.problems)).toEqual(expect.arrayContaining(["parts.L.value", "parts.C.value"]));
   });
@@ -50,17 +49,29 @@ describe("previewDesign", () => {
     const d = colpittsDraft();
     d.parts.C1.value = "4.7M";
     const p = previewDesign(d);
-    expect(p.ok).toBe(false);
-    if (p.ok) return;
+    expect(p.report).toBeNull();
     expect(p.incomplete).toBe(false);
     expect(p.problems["parts.C1.value"]?.[0]).toMatch(/tolerance letter/);
+  });
+
+  it("bad_spec_field_keeps_the_prediction_and_part_problems", () => {
+    const d = colpittsDraft();
+    d.spec.maxThdPercent = "200";
+    const p = previewDesign(d);
+    expect(p.report).not.toBeNull();
+    expect(p.input).toBeNull();
+    expect(p.problems["spec.maxThdPercent"]?.[0]).toMatch(/at most 100/);
+    d.parts.C2.value = "abc";
+    const q = previewDesign(d);
+    expect(q.problems["parts.C2.value"]).toBeDefined();
+    expect(q.problems["spec.maxThdPercent"]).toBeDefined();
   });
 });
 
 describe("draftFromRevision", () => {
   it("round_trips_through_the_preview", () => {
     const first = previewDesign(colpittsDraft());
-    if (!first.ok) throw new Error("expected a valid draft");
+    if (!first.input) throw new Error("expected a valid draft");
     const again = draftFromRevision("X", "colpitts", {
       parts: first.input.parts,
       extraCapacitanceF: 2.2e-12,
@@ -71,8 +82,8 @@ describe("draftFromRevision", () => {
     expect(again.parts.C2.tempco).toBe("0 ± 30 ppm/K");
     expect(again.spec.targetHz).toBe("1.36 MHz");
     const second = previewDesign(again);
-    expect(second.ok).toBe(true);
-    if (second.ok) {
+    expect(second.input).not.toBeNull();
+    if (second.input) {
       expect(second.input.parts).toEqual(first.input.parts);
       expect(second.input.extraCapacitanceF).toBeCloseTo(2.2e-12, 24);
       expect(second.input.spec.maxHarmonicDbc).toBe(-40);
