@@ -31,6 +31,7 @@ import { partUnit, type OscillatorDesign } from "@/lib/oscillator/design";
 import { evaluateSpec } from "@/lib/spec/evaluate";
 import type { SpecEvaluation } from "@/lib/spec/types";
 import { MetricTile } from "./metric-tile";
+import { MetricsSkeleton } from "./skeletons";
 import { runFigures, specMeasurements, type RunFigures } from "./run-results";
 import type { RunContext, RunData, RunPlot } from "./run-types";
 import { SpecVerdictList } from "./spec-verdict-list";
@@ -151,7 +152,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
   return (
     <div className="space-y-5">
       <div className="flex flex-wrap items-center gap-2">
-        <VerdictBadge verdict={badgeFor(run)} className="text-sm" />
+        <VerdictBadge verdict={badgeFor(run)} label={run.status === "queued" ? "Queued" : undefined} className="text-sm" />
         {figures.warnings.some((w) => w.code === "not-steady") ? <VerdictBadge verdict="not-steady" /> : null}
         <span className="text-sm text-ink-soft">
           Captured {formatDateTime(run.createdAt)} by {run.createdByName}
@@ -171,6 +172,8 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
       <FormMessage message={actionMessage?.text} tone={actionMessage?.ok ? "success" : "error"} />
 
       <StatusBanner run={run} refreshError={runQuery.isError ? (runQuery.error as Error).message : null} canReanalyse={canReanalyse} />
+
+      {run.status === "queued" || run.status === "running" ? <MetricsSkeleton /> : null}
 
       {done ? (
         <>
