@@ -229,7 +229,7 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
         onDragLeave={() => setDragging(false)}
         onDrop={onDrop}
         className={cn(
-          "rounded-lg border-2 border-dashed px-4 py-5 text-center transition-colors focus-within:border-copper",
+          "rounded-lg border-2 border-dashed px-4 py-5 text-center transition-colors focus-within:border-copper focus-within:ring-2 focus-within:ring-copper/40",
           dragging ? "border-copper bg-copper-light/60" : "border-rule-strong bg-paper",
           errors.file && "border-verdict-fail",
         )}
