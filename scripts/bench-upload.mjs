@@ -159,18 +159,19 @@ async function waitForRun(args, runId) {
   }
 }
 
-/** A frequency with an SI prefix and enough digits for a ppm-level reading. */
-function formatHz(hz) {
+/** A frequency with an SI prefix; 9 significant digits by default, enough for a ppm-level reading. */
+function formatHz(hz, digits = 9) {
   const abs = Math.abs(hz);
-  const [scale, unit] = abs >= 1e9 ? [1e9, "GHz"] : abs >= 1e6 ? [1e6, "MHz"] : abs >= 1e3 ? [1e3, "kHz"] : [1, "Hz"];
-  return `${(hz / scale).toPrecision(9).replace(/\.?0+$/, "")} ${unit}`;
+  const [scale, unit] = abs >= 1e9 ? [1e9, "GHz"] : abs >= 1e6 ? [1e6, "MHz"] : abs >= 1e3 ? [1e3, "kHz"] : abs >= 1 ? [1, "Hz"] : [1e-3, "mHz"];
+  // Number() drops trailing zeros and the exponent toPrecision writes for 100 at 2 digits.
+  return `${Number((hz / scale).toPrecision(digits))} ${unit}`;
 }
 
 function reportLines(run) {
   const measuredHz = run.measuredHz ?? run.results?.frequencyHz ?? null;
   const uncertaintyHz = run.results?.frequencyUncertaintyHz;
   const frequency =
-    measuredHz === null ? "measured frequency: none" : `measured frequency: ${formatHz(measuredHz)}${Number.isFinite(uncertaintyHz) ? ` ± ${formatHz(uncertaintyHz)}` : ""}`;
+    measuredHz === null ? "measured frequency: none" : `measured frequency: ${formatHz(measuredHz)}${Number.isFinite(uncertaintyHz) ? ` ± ${formatHz(uncertaintyHz, 2)}` : ""}`;
   const drift =
     run.driftPpm === null || run.driftPpm === undefined
       ? "drift: none (no prediction for this build)"
