@@ -101,6 +101,17 @@ export default async function BuildPage({ params, searchParams }: Props) {
       });
   const items = mergeTimeline(runs.items, windowTweaks);
   const tweaksById = new Map(tweaks.map((t) => [t.id, t]));
+  // One line per broken rule, worded from its most recent flag.
+  const byRule = new Map<string, { latest: (typeof flags)[number]; count: number }>();
+  for (const f of flags) {
+    const seen = byRule.get(f.rule);
+    if (!seen) byRule.set(f.rule, { latest: f, count: 1 });
+    else {
+      seen.count += 1;
+      if (new Date(f.createdAt).getTime() > new Date(seen.latest.createdAt).getTime()) seen.latest = f;
+    }
+  }
+  const flagGroups = [...byRule.values()];
   const latest = runs.items[0] ?? null;
   const badge = buildBadge(build.status, !filtered && !cursor ? latest : null);
   const analysing = runs.items.some((r) => r.status === "queued" || r.status === "running");
@@ -146,18 +157,19 @@ export default async function BuildPage({ params, searchParams }: Props) {
           {build.reviewedAt ? `, ${formatDateTime(build.reviewedAt)}` : ""}: {build.reviewComment}
         </p>
       ) : null}
-      {flags.length > 0 ? (
+      {flagGroups.length > 0 ? (
         <div role="alert" className="mb-4 rounded-lg border border-verdict-fail/40 bg-verdict-failBg px-4 py-3 text-sm">
           <p className="font-semibold text-verdict-fail">
             <span aria-hidden="true">⚑ </span>
-            {flags.length} open flag{flags.length === 1 ? "" : "s"} on this build
+            {flagGroups.length} spec rule{flagGroups.length === 1 ? "" : "s"} broken on this build
           </p>
           <ul className="mt-1 list-disc space-y-0.5 pl-5 text-ink">
-            {flags.slice(0, 5).map((f) => (
-              <li key={f.id}>
-                <Link className="underline-offset-2 hover:underline" href={`/runs/${f.runId}`}>
-                  {f.message}
+            {flagGroups.map(({ latest, count }) => (
+              <li key={latest.rule}>
+                <Link className="underline-offset-2 hover:underline" href={`/runs/${latest.runId}`}>
+                  {latest.message}
                 </Link>
+                {count > 1 ? <span className="text-ink-soft"> (on {count} runs)</span> : null}
               </li>
             ))}
           </ul>
