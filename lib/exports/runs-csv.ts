@@ -56,9 +56,10 @@ function unparse(data: Cell[][], header: boolean): string {
   );
 }
 
-/** The header line, with its line end. */
+/** The header line, with its line end (papaparse already ends a header-only table with one). */
 export function runsCsvHeader(): string {
-  return unparse([], true) + NEWLINE;
+  const header = unparse([], true);
+  return header.endsWith(NEWLINE) ? header : header + NEWLINE;
 }
 
 /**

@@ -1,4 +1,5 @@
 import { isFollowingProject } from "@/db/queries/follows";
+import { getProject } from "@/lib/logbook/projects";
 import { clientIp } from "@/lib/auth/client-ip";
 import { NotFoundError } from "@/lib/errors";
 import { apiHandler } from "@/lib/http/api-handler";
@@ -13,6 +14,7 @@ type Params = { projectId: string };
 export const GET = apiHandler<Params>({ action: "read" }, async (_request, context, user) => {
   const { projectId } = await context.params;
   if (!isId(projectId)) throw new NotFoundError("The project");
+  await getProject(user, projectId); // 404 for a project that does not exist, like PUT and DELETE
   return Response.json({ following: await isFollowingProject(user.id, projectId) });
 });
 
