@@ -23,7 +23,9 @@ const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default("Tankbook <no-reply@tankbook.test>"),
   /** HTTP side of the development fake SMTP server, where its held messages can be read. Empty in production. */
   FAKE_SMTP_API_URL: z.string().default("http://127.0.0.1:2526"),
-  UPLOAD_LIMIT_BYTES: z.coerce.number().int().positive().default(500 * 1024 * 1024),
+  UPLOAD_LIMIT_BYTES: z.coerce.number().int().positive().default(500_000_000),
+  /** Writes (POST, PUT, PATCH, DELETE) one user may make through /api/v1 per minute; more get 429. */
+  API_WRITES_PER_MINUTE: z.coerce.number().int().positive().default(600),
 });
 
 export type Env = z.infer<typeof envSchema>;

@@ -3,7 +3,26 @@ import { authenticateRequest } from "@/lib/auth/authenticate-request";
 import type { CurrentUser } from "@/lib/auth/current-user-type";
 import { requirePermission } from "@/lib/auth/require-permission";
 import type { Action } from "@/lib/auth/permissions";
+import { countApiWrite } from "@/db/queries/api-write-counts";
+import { env } from "@/lib/env";
+import { TooManyRequestsError } from "@/lib/errors";
 import { problemFromError } from "./problem";
+
+const readMethods = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/** A runaway bench script must not flood the logbook: writes are limited per user and minute. */
+async function limitWrites(request: Request, user: CurrentUser | null): Promise<void> {
+  if (!user || readMethods.has(request.method)) return;
+  const limit = env().API_WRITES_PER_MINUTE;
+  const { count, windowStart } = await countApiWrite(user.id);
+  if (count > limit) {
+    const retryAfterSeconds = Math.max(1, Math.ceil((windowStart.getTime() + 60_000 - Date.now()) / 1000));
+    throw new TooManyRequestsError(
+      `Too many writes: at most ${limit} a minute through the API. Try again in ${retryAfterSeconds} s.`,
+      retryAfterSeconds,
+    );
+  }
+}
 
 /** The second argument Next passes a route handler; `params` is a promise in Next 15+. */
 export interface RouteContext<P = Record<string, string | string[]>> {
@@ -39,6 +58,7 @@ export function apiHandler<P>(
     try {
       const user = await authenticateRequest(request);
       const allowed = options.action ? requirePermission(user, options.action) : user;
+      await limitWrites(request, allowed);
       const response = await handler(request, context, allowed as CurrentUser);
       if (!response.headers.has("cache-control")) response.headers.set("cache-control", "no-store");
       return response;

@@ -12,8 +12,8 @@ export function formatBytes(bytes: number): string {
 
 /** The upload limit (UPLOAD_LIMIT_BYTES), read when asked so tests can change it. */
 export function uploadLimitBytes(): number {
-  const value = Number(process.env.UPLOAD_LIMIT_BYTES ?? 500 * 1024 * 1024);
-  return Number.isFinite(value) && value > 0 ? value : 500 * 1024 * 1024;
+  const value = Number(process.env.UPLOAD_LIMIT_BYTES ?? 500_000_000);
+  return Number.isFinite(value) && value > 0 ? value : 500_000_000;
 }
 
 /** @throws PayloadTooLargeError naming both sizes */
