@@ -101,15 +101,17 @@ export function OperationCard({ method, path, operation, components, baseUrl }: 
             {answers.map(([status, r]) => {
               const content = r.content ? Object.entries(r.content)[0] : undefined;
               return (
-                <li key={status} className="flex flex-wrap items-baseline gap-x-2">
-                  <span className="num font-mono text-xs font-semibold text-verdict-pass">{status}</span>
-                  <span className="text-ink-soft">{r.description}</span>
-                  {content ? (
-                    <span className="text-xs text-ink-faint">
-                      {content[0]} <TypeLabel schema={content[1].schema} />
-                    </span>
-                  ) : null}
-                  {r.headers ? <span className="text-xs text-ink-faint">headers: {Object.keys(r.headers).join(", ")}</span> : null}
+                <li key={status} className="flex items-baseline gap-2">
+                  <span className="num w-8 shrink-0 font-mono text-xs font-semibold text-verdict-pass">{status}</span>
+                  <div className="min-w-0 flex-1">
+                    <span className="text-ink-soft">{r.description}</span>
+                    {content ? (
+                      <span className="ml-2 text-xs text-ink-faint">
+                        {content[0]} <TypeLabel schema={content[1].schema} />
+                      </span>
+                    ) : null}
+                    {r.headers ? <span className="ml-2 text-xs text-ink-faint">headers: {Object.keys(r.headers).join(", ")}</span> : null}
+                  </div>
                 </li>
               );
             })}
@@ -117,9 +119,9 @@ export function OperationCard({ method, path, operation, components, baseUrl }: 
           {problems.length ? (
             <ul className="mt-2 space-y-1 border-t border-rule/70 pt-2">
               {problems.map(([status, r]) => (
-                <li key={status} className="flex flex-wrap items-baseline gap-x-2">
-                  <span className="num font-mono text-xs font-semibold text-verdict-fail">{status}</span>
-                  <RichText text={r.description} className="text-ink-soft" />
+                <li key={status} className="flex items-baseline gap-2">
+                  <span className="num w-8 shrink-0 font-mono text-xs font-semibold text-verdict-fail">{status}</span>
+                  <RichText text={r.description} className="min-w-0 flex-1 text-ink-soft" />
                 </li>
               ))}
             </ul>
