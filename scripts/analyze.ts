@@ -7,7 +7,18 @@
  * a short table. Bad input: exit status 1, one line on stderr, nothing on stdout. Bad usage: 2.
  */
 import { closeSync, fstatSync, openSync, readSync } from "node:fs";
-import { analyzeCapture, type AnalysisResult, CaptureImporter, CaptureImportError } from "../lib/analysis";
+import { MessageChannel, receiveMessageOnPort, Worker } from "node:worker_threads";
+import {
+  analysisChannels,
+  analyzeCapture,
+  type AnalysisResult,
+  type AnalyzeOptions,
+  CaptureImporter,
+  CaptureImportError,
+  type Capture,
+  type Spectrum,
+  windowedSpectrum,
+} from "../lib/analysis";
 
 const USAGE = "usage: analyze FILE [--channel NAME] [--harmonics N] [--json]";
 const CHUNK_BYTES = 1 << 20;
@@ -109,11 +120,62 @@ function table(result: AnalysisResult): string {
   return lines.join("\n") + "\n";
 }
 
+// Records this long are worth a second thread for their spectrum; shorter ones finish before it starts.
+const PARALLEL_SPECTRUM_SAMPLES = 200_000;
+const WORKER_START_MS = 2_000;
+const WORKER_WAIT_MS = 120_000;
+
+/** The spectrum worker, started before the file is read so its start-up overlaps the import. */
+function startSpectrumWorker(): Worker | undefined {
+  // Only from the bundle (scripts/run-analyze.mjs): under tsx a worker loads its .ts through the
+  // main thread's loader, which cannot answer while the main thread waits for the worker.
+  if (import.meta.url.endsWith(".ts")) return undefined;
+  try {
+    const worker = new Worker(new URL("./analyze-spectrum-worker.mjs", import.meta.url));
+    worker.unref();
+    worker.on("error", () => undefined); // a failed worker only means computing the spectrum here
+    return worker;
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * A spectrumOf for analyzeCapture that hands the work to the worker right away and, when the
+ * engine asks for the result, blocks until the worker is done (or computes it here if it failed).
+ */
+function spectrumFromWorker(worker: Worker, capture: Capture, options: AnalyzeOptions): AnalyzeOptions["spectrumOf"] {
+  const { channel } = analysisChannels(capture, options);
+  const samples = new SharedArrayBuffer(channel.samples.length * 8);
+  new Float64Array(samples).set(channel.samples);
+  const done = new SharedArrayBuffer(4);
+  const { port1, port2 } = new MessageChannel();
+  worker.postMessage(
+    { samples, length: channel.samples.length, sampleRateHz: capture.sampleRateHz, maxFftLength: options.maxFftLength, port: port2, done },
+    [port2],
+  );
+  return (y, sampleRateHz, maxFftLength) => {
+    // 0: not picked up yet, 1: working, 2: done. A worker that has not picked the job up within
+    // a couple of seconds is not coming; one that has is given as long as the work can take.
+    const flag = new Int32Array(done);
+    Atomics.wait(flag, 0, 0, WORKER_START_MS);
+    if (Atomics.load(flag, 0) === 1) Atomics.wait(flag, 0, 1, WORKER_WAIT_MS);
+    const reply = receiveMessageOnPort(port1)?.message as { spectrum?: Spectrum } | undefined;
+    port1.close();
+    void worker.terminate();
+    return reply?.spectrum ?? windowedSpectrum(y, sampleRateHz, { maxFftLength });
+  };
+}
+
 function main(argv: string[]): number {
   try {
     const args = parseArguments(argv);
+    const worker = startSpectrumWorker();
     const capture = importFile(args.file);
-    const { result } = analyzeCapture(capture, { channel: args.channel, harmonics: args.harmonics, plot: false });
+    const options: AnalyzeOptions = { channel: args.channel, harmonics: args.harmonics, plot: false };
+    if (worker && capture.samples >= PARALLEL_SPECTRUM_SAMPLES) options.spectrumOf = spectrumFromWorker(worker, capture, options);
+    else void worker?.terminate();
+    const { result } = analyzeCapture(capture, options);
     process.stdout.write(args.json ? JSON.stringify(result) + "\n" : table(result));
     return 0;
   } catch (error) {

@@ -9,10 +9,12 @@ import { fileURLToPath, pathToFileURL } from "node:url";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const entry = path.join(root, "scripts", "analyze.ts");
-const bundle = path.join(root, "node_modules", ".cache", "tankbook-tools", "analyze.mjs");
+const workerEntry = path.join(root, "scripts", "analyze-spectrum-worker.ts");
+const outdir = path.join(root, "node_modules", ".cache", "tankbook-tools");
+const bundle = path.join(outdir, "analyze.mjs");
 
 function newestSourceMs() {
-  let newest = statSync(entry).mtimeMs;
+  let newest = Math.max(statSync(entry).mtimeMs, statSync(workerEntry).mtimeMs, statSync(fileURLToPath(import.meta.url)).mtimeMs);
   const dir = path.join(root, "lib", "analysis");
   for (const name of readdirSync(dir)) newest = Math.max(newest, statSync(path.join(dir, name)).mtimeMs);
   newest = Math.max(newest, statSync(path.join(root, "package-lock.json")).mtimeMs);
@@ -29,20 +31,27 @@ function bundleMs() {
 
 if (bundleMs() < newestSourceMs()) {
   const { build } = await import("esbuild");
-  mkdirSync(path.dirname(bundle), { recursive: true });
-  // Build to a private name and rename, so two commands started together never run half a file.
-  const partial = `${bundle}.${process.pid}.partial.mjs`;
-  await build({
-    entryPoints: [entry],
-    outfile: partial,
-    bundle: true,
-    platform: "node",
-    format: "esm",
-    target: "node20",
-    logLevel: "error",
-    banner: { js: "import { createRequire as __tankbookRequire } from 'node:module'; const require = __tankbookRequire(import.meta.url);" },
-  });
-  renameSync(partial, bundle);
+  mkdirSync(outdir, { recursive: true });
+  // Build to private names and rename, so two commands started together never run half a file;
+  // the worker goes first, as the command's bundle is what marks the pair fresh.
+  for (const [source, name] of [
+    [workerEntry, "analyze-spectrum-worker.mjs"],
+    [entry, "analyze.mjs"],
+  ]) {
+    const target = path.join(outdir, name);
+    const partial = `${target}.${process.pid}.partial.mjs`;
+    await build({
+      entryPoints: [source],
+      outfile: partial,
+      bundle: true,
+      platform: "node",
+      format: "esm",
+      target: "node20",
+      logLevel: "error",
+      banner: { js: "import { createRequire as __tankbookRequire } from 'node:module'; const require = __tankbookRequire(import.meta.url);" },
+    });
+    renameSync(partial, target);
+  }
 }
 
 await import(pathToFileURL(bundle).href);

@@ -4,7 +4,7 @@ import { fitHarmonics, fitHarmonicsOfChannels } from "./harmonic-fit";
 import { amplitudeRatioToDb, enobFromSinadDb, sfdrDb, sinadDb, thdFToThdR, thdRatio } from "./metrics";
 import { type PlotData, peakToDbv, spectrumPlot, waveformEnvelope } from "./plot";
 import { fitSine4 } from "./sine-fit";
-import { coarsePeakHz, windowedSpectrum } from "./spectrum";
+import { coarsePeakHz, type Spectrum, windowedSpectrum } from "./spectrum";
 import { type GainPhase, gainPhaseFromFits } from "./two-channel";
 import { type AnalysisWarning, buildWarnings, checkClipping, checkDrift, checkEnvelope } from "./warnings";
 import { ENGINE_VERSION } from "./version";
@@ -136,6 +136,11 @@ export interface AnalyzeOptions {
   collectTimings?: boolean;
   /** Build the plot data (default true); a command that prints only numbers can skip it. */
   plot?: boolean;
+  /**
+   * Computes the record's windowed spectrum (default {@link windowedSpectrum}). A command may hand
+   * this to another thread and block here until it is done; it is asked for after the first fit.
+   */
+  spectrumOf?: (samples: Float64Array, sampleRateHz: number, maxFftLength: number | undefined) => Spectrum;
 }
 
 const METHOD: AnalysisMethod = {
@@ -162,6 +167,13 @@ function findChannel(channels: CaptureChannel[], wanted: string): CaptureChannel
 }
 
 const now = () => performance.now();
+
+// 2^16 samples: a 5 ms FFT, and a head long enough to place the tone within a bin of the whole record.
+const COARSE_HEAD_SAMPLES = 1 << 16;
+
+function defaultSpectrum(samples: Float64Array, sampleRateHz: number, maxFftLength: number | undefined): Spectrum {
+  return windowedSpectrum(samples, sampleRateHz, { maxFftLength });
+}
 
 /**
  * Analyses one record: frequency (with its uncertainty), amplitude, DC, harmonics, THD, SINAD,
@@ -209,17 +221,30 @@ function analyzeRecord(
   }
   const t1 = now();
 
-  const spectrum = windowedSpectrum(y, sampleRateHz, { maxFftLength: options.maxFftLength });
-  const coarseHz = max > min ? coarsePeakHz(spectrum) : undefined;
-  if (coarseHz === undefined) {
+  // The coarse frequency comes from the head of the record, refined by a sine fit there, so the
+  // full spectrum is not needed until the end (a caller may compute it on another thread). The
+  // head's fit is good to a small fraction of the whole record's bin, where Gauss–Newton converges.
+  const headLength = Math.min(n, COARSE_HEAD_SAMPLES);
+  const head = headLength === n ? y : y.subarray(0, headLength);
+  const headPeakHz = max > min ? coarsePeakHz(windowedSpectrum(head, sampleRateHz)) : undefined;
+  if (headPeakHz === undefined) {
     throw new CaptureImportError("no oscillation found: the channel is flat");
   }
+  const coarseHz = headLength === n ? headPeakHz : fitSine4(head, sampleRateHz, headPeakHz, { toleranceBins: 1e-2 }).frequencyHz;
   const t2 = now();
 
   // First pass: frequency from the raw record, harmonics there, and the record with them removed.
   // A milli-bin is close enough to take the harmonics out; the second fit does the fine work.
-  const first = fitSine4(y, sampleRateHz, coarseHz, { toleranceBins: 1e-3 });
+  let first = fitSine4(y, sampleRateHz, coarseHz, { toleranceBins: 1e-3 });
   const t3 = now();
+  const spectrum = (options.spectrumOf ?? defaultSpectrum)(y, sampleRateHz, options.maxFftLength);
+  // A safety net for records whose head is not representative (say, a transient that dies early):
+  // if the whole record's spectrum peaks elsewhere, start again from there.
+  const fullPeakHz = coarsePeakHz(spectrum);
+  if (fullPeakHz !== undefined && Math.abs(fullPeakHz - first.frequencyHz) > 3 * (sampleRateHz / spectrum.segmentLength)) {
+    first = fitSine4(y, sampleRateHz, fullPeakHz, { toleranceBins: 1e-3 });
+  }
+  const t3b = now();
   const cleaned = new Float64Array(n);
   fitHarmonics(y, first.omegaRadPerSample, maxOrder, { cleanedOut: cleaned });
   const t4 = now();
@@ -344,15 +369,37 @@ function analyzeRecord(
   if (options.collectTimings) {
     analysis.timings = {
       statsMs: t1 - t0,
-      fftMs: t2 - t1,
+      fftMs: t2 - t1 + (t3b - t3),
       fitMs: t3 - t2 + (t5 - t4),
-      harmonicsMs: t4 - t3 + (t6 - t5),
+      harmonicsMs: t4 - t3b + (t6 - t5),
       checksMs: t7 - t6,
       twoChannelMs: t8 - t7,
       plotMs: t9 - t8,
     };
   }
   return analysis;
+}
+
+/**
+ * The channels {@link analyzeCapture} will use: the one analysed and the one compared with it.
+ * @throws CaptureImportError when a named channel is not in the capture
+ */
+export function analysisChannels(capture: Capture, options: AnalyzeOptions = {}): { channel: CaptureChannel; compare?: CaptureChannel } {
+  const names = capture.channels.map((c) => c.name);
+  let channel = capture.channels[0];
+  if (options.channel !== undefined) {
+    const found = findChannel(capture.channels, options.channel);
+    if (!found) throw new CaptureImportError(`no channel named '${options.channel}'; the capture has ${names.join(", ")}`);
+    channel = found;
+  }
+  let compare: CaptureChannel | undefined;
+  if (typeof options.compareChannel === "string") {
+    compare = findChannel(capture.channels, options.compareChannel);
+    if (!compare) throw new CaptureImportError(`no channel named '${options.compareChannel}' to compare; the capture has ${names.join(", ")}`);
+  } else if (options.compareChannel !== false) {
+    compare = capture.channels.find((c) => c !== channel);
+  }
+  return { channel, compare: compare === channel ? undefined : compare };
 }
 
 /**
@@ -370,20 +417,7 @@ function analyzeRecord(
  */
 export function analyzeCapture(capture: Capture, options: AnalyzeOptions = {}): CaptureAnalysis {
   const names = capture.channels.map((c) => c.name);
-  let channel = capture.channels[0];
-  if (options.channel !== undefined) {
-    const found = findChannel(capture.channels, options.channel);
-    if (!found) throw new CaptureImportError(`no channel named '${options.channel}'; the capture has ${names.join(", ")}`);
-    channel = found;
-  }
-  let compare: CaptureChannel | undefined;
-  if (typeof options.compareChannel === "string") {
-    compare = findChannel(capture.channels, options.compareChannel);
-    if (!compare) throw new CaptureImportError(`no channel named '${options.compareChannel}' to compare; the capture has ${names.join(", ")}`);
-  } else if (options.compareChannel !== false) {
-    compare = capture.channels.find((c) => c !== channel);
-  }
-  if (compare === channel) compare = undefined;
+  const { channel, compare } = analysisChannels(capture, options);
   const analysis = analyzeRecord(channel.samples, capture.sampleRateHz, capture.startTimeS, { ...options, channel: channel.name }, compare);
   analysis.result.metadata = capture.metadata;
   analysis.result.channels = names;

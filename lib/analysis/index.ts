@@ -16,7 +16,7 @@
  * @packageDocumentation
  */
 
-export { analyzeCapture, analyzeSamples } from "./analyze-capture";
+export { analysisChannels, analyzeCapture, analyzeSamples } from "./analyze-capture";
 export type {
   AnalysisMethod,
   AnalysisResult,
@@ -32,6 +32,8 @@ export type { Capture, CaptureChannel, CaptureImportOptions, TimeSource } from "
 export type { CaptureColumn, ColumnKind } from "./columns";
 export { CaptureImportError } from "./errors";
 export type { HarmonicMarker, PlotData, SpectrumPlot, WaveformEnvelope } from "./plot";
+export { windowedSpectrum } from "./spectrum";
+export type { Spectrum, SpectrumOptions } from "./spectrum";
 export { gainPhaseAtFundamental } from "./two-channel";
 export type { GainPhase } from "./two-channel";
 export type { AnalysisWarning, WarningCode } from "./warnings";
