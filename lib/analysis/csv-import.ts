@@ -189,7 +189,7 @@ export class CaptureImporter {
       throw new CaptureImportError(`header only: no data rows after the header on line ${this.headerLine}`);
     }
     if (samples < MIN_SAMPLES) {
-      throw new CaptureImportError(`only ${samples} samples; at least ${MIN_SAMPLES} are needed for an analysis`);
+      throw new CaptureImportError(`only ${samples} sample${samples === 1 ? "" : "s"}; at least ${MIN_SAMPLES} are needed for an analysis`);
     }
     let sampleRateHz: number;
     let startTimeS = 0;
