@@ -22,9 +22,14 @@ interface Outcome {
 /** Runs the bench script as a bench PC would: plain node, no tsx, no project imports. */
 function bench(args: string[], env: Record<string, string> = {}): Promise<Outcome> {
   return new Promise((resolve) => {
-    execFile(process.execPath, [script, ...args], { cwd: tmp, env: { PATH: process.env.PATH ?? "", ...env }, timeout: 150_000 }, (err, stdout, stderr) => {
-      resolve({ code: err ? Number((err as { code?: number }).code ?? 1) : 0, stdout, stderr });
-    });
+    execFile(
+      process.execPath,
+      [script, ...args],
+      { cwd: tmp, env: { PATH: process.env.PATH ?? "", ...env } as NodeJS.ProcessEnv, timeout: 150_000, encoding: "utf8" },
+      (err: Error | null, stdout: string, stderr: string) => {
+        resolve({ code: err ? Number((err as Error & { code?: number }).code ?? 1) : 0, stdout, stderr });
+      },
+    );
   });
 }
 

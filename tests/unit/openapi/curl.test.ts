@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { curlExample } from "@/lib/openapi/curl";
 
-const bearer = [{ bearerToken: [] }, { sessionCookie: [] }];
+const bearer: Record<string, string[]>[] = [{ bearerToken: [] }, { sessionCookie: [] }];
 
 describe("curlExample", () => {
   it("writes_a_get_with_the_token_variable_and_path_variables", () => {
