@@ -25,7 +25,7 @@ function bench(args: string[], env: Record<string, string> = {}): Promise<Outcom
     execFile(
       process.execPath,
       [script, ...args],
-      { cwd: tmp, env: { PATH: process.env.PATH ?? "", ...env } as NodeJS.ProcessEnv, timeout: 150_000, encoding: "utf8" },
+      { cwd: tmp, env: { PATH: process.env.PATH ?? "", ...env } as unknown as NodeJS.ProcessEnv, timeout: 150_000, encoding: "utf8" },
       (err: Error | null, stdout: string, stderr: string) => {
         resolve({ code: err ? Number((err as Error & { code?: number }).code ?? 1) : 0, stdout, stderr });
       },
