@@ -1,0 +1,169 @@
+import "server-only";
+import type { Build } from "@/db/queries/builds";
+import { getBuildTableRow, type BuildTableRow } from "@/db/queries/dashboard";
+import { listBuildFlags, type Flag } from "@/db/queries/flags";
+import { getFollowStatus, isFollowingProject, type FollowStatus } from "@/db/queries/follows";
+import type { ReviewBasis } from "@/db/queries/reviews";
+import { getRun, listRuns, type Run } from "@/db/queries/runs";
+import { listTweaks, type Tweak } from "@/db/queries/tweaks";
+import { tweakLabel } from "@/components/logbook/tweak-label";
+import type { CurrentUser } from "@/lib/auth/current-user-type";
+import {
+  buildTimelineSeries,
+  classifyImpliedCapacitanceTrend,
+  impliedCapacitanceSign,
+  impliedCapacitanceUncertaintyF,
+  type ImpliedCapacitanceTrend,
+  type TimelineSeries,
+} from "@/lib/drift-trend";
+import { getRetuneSuggestion, getSignOff, type BuildRetune } from "@/lib/logbook/review";
+import { analyseDrift, type DriftAnalysis } from "@/lib/oscillator/drift";
+import type { OscillatorDesign, Topology } from "@/lib/oscillator/design";
+import type { ESeriesName } from "@/lib/oscillator/e-series";
+
+// Everything the build page's review panels and the build report read, in one place: the analysed runs with their
+// snapshots (for the charts' bands), tweaks, flags, follow state, sign-off and retune suggestion.
+
+/** Runs the charts hold at most (newest analysed ones); older runs stay in the runs table and the CSV export. */
+export const TIMELINE_RUN_LIMIT = 200;
+
+/** One analysed run's implied extra capacitance, as the trend panel lists it. */
+export interface ImpliedRunRow {
+  id: string;
+  index: number;
+  originalFilename: string;
+  segment: number;
+  impliedF: number | null;
+  uncertaintyF: number | null;
+  sign: "more" | "less" | "none" | null;
+}
+
+export interface BuildReviewData {
+  series: TimelineSeries;
+  /** Analysed runs the charts leave out (older than the newest {@link TIMELINE_RUN_LIMIT}). */
+  runsLeftOut: boolean;
+  implied: ImpliedRunRow[];
+  trend: ImpliedCapacitanceTrend;
+  /** The sentence on what the latest run's sign means (lib/oscillator's own words for that run). */
+  latestExplanation: string | null;
+  /** Short sentence for the latest run's sign. */
+  latestSignPhrase: string | null;
+  retune: BuildRetune | null;
+  retuneError: string | null;
+  flags: Flag[];
+  follow: FollowStatus;
+  followsProject: boolean;
+  signOff: ReviewBasis | null;
+  row: BuildTableRow | null;
+  /** Rules the latest analysed run broke (its open or acknowledged flags); empty when it passed. */
+  latestFlaggedRules: string[];
+  tweaks: Tweak[];
+}
+
+function designOfSnapshot(run: Run): OscillatorDesign {
+  const s = run.snapshot;
+  return {
+    topology: s.topology,
+    parts: s.parts,
+    ...(s.extraCapacitanceF ? { extraCapacitanceF: s.extraCapacitanceF } : {}),
+    ...(s.windings ? { windings: s.windings } : {}),
+  };
+}
+
+/**
+ * Reads a build's review data.
+ * @param user - the signed-in person (for the follow state)
+ * @param build - the build, already loaded by the page
+ * @param topology - its design's topology (to word the tweaks)
+ * @param options.series - E-series for the retune suggestion; default E12
+ */
+export async function loadBuildReview(
+  user: CurrentUser,
+  build: Build,
+  topology: Topology,
+  options: { series?: ESeriesName } = {},
+): Promise<BuildReviewData> {
+  const [page, tweaks, flags, follow, followsProject, signOff, row] = await Promise.all([
+    listRuns(build.id, { status: "done", limit: TIMELINE_RUN_LIMIT }),
+    listTweaks(build.id),
+    listBuildFlags(build.id),
+    getFollowStatus(user.id, build.id),
+    isFollowingProject(user.id, build.projectId),
+    getSignOff(build.id),
+    getBuildTableRow(build.id),
+  ]);
+  // The list rows carry no snapshot; the bands and spec of each run live there.
+  const runs = (await Promise.all(page.items.map((r) => getRun(r.id)))).filter((r): r is Run => r !== null);
+
+  let retune: BuildRetune | null = null;
+  let retuneError: string | null = null;
+  try {
+    retune = await getRetuneSuggestion(build.id, { series: options.series });
+  } catch (err) {
+    retuneError = err instanceof Error ? err.message : "The retune could not be computed for these values.";
+  }
+
+  const series = buildTimelineSeries(
+    runs.map((r) => ({
+      id: r.id,
+      createdAt: new Date(r.createdAt).toISOString(),
+      originalFilename: r.originalFilename,
+      measuredHz: r.measuredHz,
+      frequencyUncertaintyHz: r.frequencyUncertaintyHz,
+      predictedHz: r.snapshot.predictedHz ?? r.predictedHz,
+      worstCase: r.snapshot.worstCase,
+      statistical: r.snapshot.statistical,
+      spec: r.snapshot.spec ?? null,
+      thdPercent: r.thdPercent,
+      worstHarmonicDbc: r.worstHarmonicDbc,
+      verdict: r.verdict,
+    })),
+    tweaks.map((t) => ({ id: t.id, createdAt: new Date(t.createdAt).toISOString(), partRef: t.partRef, planned: t.planned, text: tweakLabel(t, topology) })),
+  );
+
+  const byId = new Map(runs.map((r) => [r.id, r]));
+  const implied: ImpliedRunRow[] = series.runs.map((point) => {
+    const r = byId.get(point.id)!;
+    const impliedF = r.impliedExtraCapacitanceF;
+    return {
+      id: r.id,
+      index: point.index,
+      originalFilename: r.originalFilename,
+      segment: point.segment,
+      impliedF,
+      uncertaintyF: impliedCapacitanceUncertaintyF(r.snapshot.cEffF, impliedF, r.measuredHz, r.frequencyUncertaintyHz),
+      sign: typeof impliedF === "number" && Number.isFinite(impliedF) ? impliedCapacitanceSign(impliedF).sign : null,
+    };
+  });
+  const trend = classifyImpliedCapacitanceTrend(implied.map((p) => ({ impliedExtraCapacitanceF: p.impliedF, uncertaintyF: p.uncertaintyF, segment: p.segment })));
+
+  const latest = runs[0] ?? null;
+  let drift: DriftAnalysis | null = null;
+  if (latest?.measuredHz && latest.snapshot.predictedHz) {
+    try {
+      drift = analyseDrift(designOfSnapshot(latest), latest.measuredHz);
+    } catch {
+      drift = null;
+    }
+  }
+  const latestImplied = latest?.impliedExtraCapacitanceF ?? drift?.impliedExtraCapacitanceF ?? null;
+  const latestFlaggedRules = latest && latest.verdict === "fail" ? [...new Set(flags.filter((f) => f.runId === latest.id).map((f) => f.rule))].sort() : [];
+
+  return {
+    series,
+    runsLeftOut: page.nextCursor !== null,
+    implied,
+    trend,
+    latestExplanation: drift?.explanation ?? null,
+    latestSignPhrase: typeof latestImplied === "number" && Number.isFinite(latestImplied) ? impliedCapacitanceSign(latestImplied).phrase : null,
+    retune,
+    retuneError,
+    flags,
+    follow,
+    followsProject,
+    signOff,
+    row,
+    latestFlaggedRules,
+    tweaks,
+  };
+}

@@ -1,0 +1,128 @@
+"use client";
+
+import Link from "next/link";
+import { useActionState } from "react";
+import { Button } from "@/components/ui/button";
+import { FormMessage } from "@/components/ui/field";
+import type { FormState } from "@/lib/auth/action-state";
+import { formatDateTime } from "@/lib/format/dates";
+import { formatPartValue, formatPercent, formatQuantity, formatRange, formatSignedCapacitance } from "@/lib/format/numbers";
+import type { RetuneSuggestion } from "@/lib/oscillator/retune";
+import { cn } from "@/lib/utils";
+
+/** The suggestion without the full design object (the card does not need it). */
+export type RetuneView = Omit<RetuneSuggestion, "design">;
+
+export interface RetuneCardProps {
+  suggestion: RetuneView | null;
+  /** The run it starts from. */
+  run: { id: string; originalFilename: string; createdAt: Date | string; measuredHz: number | null } | null;
+  /** Why there is no suggestion when the model refused (shown instead of the card body). */
+  error?: string | null;
+  /** planRetuneTweakAction bound to the build id; absent for roles that may not log tweaks. */
+  plan?: (prev: FormState, formData: FormData) => Promise<FormState>;
+  /** Links to the same suggestion from another E-series. */
+  seriesLinks?: { series: string; href: string; current: boolean }[];
+}
+
+function inside(valueHz: number, band: { minHz: number; maxHz: number }): boolean {
+  return valueHz >= band.minHz && valueHz <= band.maxHz;
+}
+
+/**
+ * The next tweak: from the latest analysed run, the single standard-value part change that lands nearest the
+ * target (taking the capacitance the measurement implies as real), its predicted frequency and bands, and one
+ * button that logs it as a planned tweak.
+ */
+export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [] }: RetuneCardProps) {
+  const [state, formAction, pending] = useActionState(plan ?? (async (prev: FormState) => prev), {} as FormState);
+  if (error) {
+    return <p className="text-sm text-verdict-fail">No retune suggestion: {error}</p>;
+  }
+  if (!s || !run) {
+    return (
+      <p className="text-sm text-ink-soft">
+        A suggestion needs an analysed run with a measured frequency and a target frequency in the design&apos;s spec. Upload a capture, or add a
+        target to the design.
+      </p>
+    );
+  }
+  const from = formatPartValue(s.fromSi, s.unit);
+  const to = formatPartValue(s.toSi, s.unit);
+  const targetInWorst = inside(s.targetHz, s.worstCase);
+  return (
+    <div className="space-y-3">
+      <p className="text-xs text-ink-soft">
+        From{" "}
+        <Link href={`/runs/${run.id}`} className="underline underline-offset-2 hover:text-copper">
+          {run.originalFilename}
+        </Link>{" "}
+        ({formatDateTime(run.createdAt)}, measured <span className="num font-mono">{formatQuantity(run.measuredHz, "Hz", 6)}</span>), taking its implied{" "}
+        <span className="num font-mono">{formatSignedCapacitance(s.calibrationCapacitanceF)}</span> as real.
+      </p>
+      {s.changed ? (
+        <p className="num font-mono text-lg font-semibold text-ink">
+          {s.part} {from} <span aria-hidden="true">→</span>
+          <span className="sr-only">to</span> {to} <span className="font-sans text-xs font-medium text-ink-faint">{s.series}</span>
+        </p>
+      ) : (
+        <p className="text-sm font-medium text-ink">
+          <span className="num font-mono">
+            {s.part} {from}
+          </span>{" "}
+          is already the nearest {s.series} value: no single swap gets closer to the target.
+        </p>
+      )}
+      <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+        <dt className="text-ink-soft">Predicted after</dt>
+        <dd className="num text-right font-mono text-[13px] text-ink">{formatQuantity(s.predictedHz, "Hz", 6)}</dd>
+        <dt className="text-ink-soft">Off the target by</dt>
+        <dd className="num text-right font-mono text-[13px] text-ink">
+          {formatQuantity(s.errorHz, "Hz", 3, { signed: true })} · {formatPercent(s.errorPercent, 2, { signed: true })}
+        </dd>
+        <dt className="text-ink-soft">Worst-case band</dt>
+        <dd className="num text-right font-mono text-[13px] text-ink">{formatRange(s.worstCase.minHz, s.worstCase.maxHz, "Hz", 5)}</dd>
+        <dt className="text-ink-soft">Statistical band</dt>
+        <dd className="num text-right font-mono text-[13px] text-ink">{formatRange(s.statistical.minHz, s.statistical.maxHz, "Hz", 5)}</dd>
+        {s.idealSi !== null ? (
+          <>
+            <dt className="text-ink-soft">Exact value for the target</dt>
+            <dd className="num text-right font-mono text-[13px] text-ink">{formatPartValue(s.idealSi, s.unit, 4)}</dd>
+          </>
+        ) : null}
+      </dl>
+      <p className="text-xs text-ink-soft">
+        <span aria-hidden="true">{targetInWorst ? "✓ " : "! "}</span>
+        {targetInWorst
+          ? `The ${formatQuantity(s.targetHz, "Hz", 6)} target lies inside the worst-case band: parts within tolerance can land on it.`
+          : `The ${formatQuantity(s.targetHz, "Hz", 6)} target lies outside the worst-case band: even perfect parts of this value miss it.`}
+      </p>
+      {seriesLinks.length > 1 ? (
+        <nav aria-label="E-series for the suggestion" className="flex flex-wrap items-center gap-1 text-xs">
+          <span className="text-ink-faint">Series:</span>
+          {seriesLinks.map((l) => (
+            <Link
+              key={l.series}
+              href={l.href}
+              scroll={false}
+              aria-current={l.current ? "true" : undefined}
+              className={cn("rounded px-1.5 py-0.5 font-mono", l.current ? "bg-copper-light font-semibold text-copper-dark" : "text-ink-soft hover:bg-paper-sunk")}
+            >
+              {l.series}
+            </Link>
+          ))}
+        </nav>
+      ) : null}
+      {plan && s.changed ? (
+        <form action={formAction} className="no-print space-y-2">
+          <input type="hidden" name="series" value={s.series} />
+          <Button type="submit" disabled={pending}>
+            {pending ? "Planning…" : "Plan this tweak"}
+          </Button>
+          <p className="text-xs text-ink-faint">Logs it as a planned tweak; the as-built values change only when you apply it at the bench.</p>
+          <FormMessage message={state.message} tone={state.ok ? "success" : "error"} />
+        </form>
+      ) : null}
+    </div>
+  );
+}
