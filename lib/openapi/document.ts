@@ -26,7 +26,7 @@ const API_DESCRIPTION = `The JSON API of Tankbook: the same route handlers serve
 
 **Roles.** viewer < technician < engineer < admin. Viewers read; technicians start builds, log tweaks and upload captures; engineers write projects and designs and review builds.
 
-**Errors** are \`application/problem+json\` (RFC 9457): \`type\`, \`title\`, \`status\`, \`detail\`, and for bad input \`fields\` with the messages per field. 400 bad input, 401 no or bad credentials, 403 role too low, 404 unknown, 409 conflict (e.g. duplicate capture), 413 too large, 415 not a CSV, 429 throttled.
+**Errors** are \`application/problem+json\` (RFC 9457): \`type\`, \`title\`, \`status\`, \`detail\`, and for bad input \`fields\` with the messages per field. 400 bad input, 401 no or bad credentials, 403 role too low, 404 unknown, 409 conflict (e.g. duplicate capture), 413 too large, 415 not a CSV, 429 throttled (failed sign-ins, or more writes a minute than API_WRITES_PER_MINUTE, 600 unless configured; wait for Retry-After).
 
 **Lists** answer \`{items, nextCursor}\`; pass \`nextCursor\` back as \`?cursor=\` until it is null. \`?limit=\` takes 1 to 200.
 

@@ -100,6 +100,8 @@ export function registerOperation(registry: OpenAPIRegistry, spec: OperationSpec
   if (spec.action) implied[401] = undefined;
   if (spec.action && roleNeededFor(spec.action) !== "viewer") implied[403] = `Needs ${roleWords(spec.action)}.`;
   if (spec.path.includes("{")) implied[404] = undefined;
+  // lib/http/api-handler.ts counts every authenticated write (API_WRITES_PER_MINUTE per account).
+  if (spec.action && spec.method !== "get") implied[429] = undefined;
   const problems = { ...implied, ...spec.problems };
   const responses: Record<number, ResponseConfig> = { ...spec.responses };
   for (const status of Object.keys(problems).map(Number).sort() as ProblemStatus[]) {

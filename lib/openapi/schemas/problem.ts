@@ -64,5 +64,5 @@ export const PROBLEM_MEANINGS: Record<number, string> = {
   409: "Conflicts with what is stored (a name already taken, a run already being analysed, a capture already logged).",
   413: "The upload is over the capture limit (UPLOAD_LIMIT_BYTES, 500 MB unless configured).",
   415: "Not a CSV capture, or not the content type this operation takes.",
-  429: "Too many attempts; wait for the number of seconds in Retry-After.",
+  429: "More writes than API_WRITES_PER_MINUTE (600 unless configured) by this account in the current minute; wait for the seconds in Retry-After.",
 };
