@@ -1,6 +1,7 @@
 import Papa from "papaparse";
 import { type CaptureColumn, parseColumnHeader } from "./columns";
 import { CaptureImportError } from "./errors";
+import { guessDelimiter, isNumericLine, namesAColumn, splitCells } from "./header-lines";
 import { findPreambleTiming } from "./preamble";
 import { ROLE_SKIP, ROLE_TIME, RowParser } from "./row-parser";
 
@@ -49,7 +50,6 @@ const LF = 0x0a;
 const HEAD_LIMIT_BYTES = 1 << 20;
 const HEAD_SLICE_BYTES = 1 << 14;
 const LINE_LIMIT_BYTES = 1 << 20;
-const NUMERIC_CELL = /^[+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][+-]?\d+)?$/;
 // Control bytes that never appear in a text CSV (tab, LF, FF and CR are allowed).
 const CONTROL_BYTE = /[\u0000-\u0008\u000b\u000e-\u001f\u007f]/;
 
@@ -58,37 +58,6 @@ interface HeadLine {
   lineNumber: number;
   /** Offset in the head buffer just after this line's line feed. */
   end: number;
-}
-
-function guessDelimiter(text: string): "," | ";" | "\t" {
-  if (text.includes("\t")) return "\t";
-  if (text.includes(";")) return ";";
-  return ",";
-}
-
-function splitCells(text: string, delimiter: string): string[] {
-  const cells = (Papa.parse<string[]>(text, { delimiter, quoteChar: '"' }).data[0] ?? []).map((cell) => cell.trim());
-  while (cells.length > 1 && cells[cells.length - 1] === "") cells.pop();
-  return cells;
-}
-
-function isNumericLine(text: string): boolean {
-  const delimiter = guessDelimiter(text);
-  const cells = text.split(delimiter).map((cell) => cell.trim().replace(/^"(.*)"$/, "$1"));
-  while (cells.length > 1 && cells[cells.length - 1] === "") cells.pop();
-  if (cells.length === 0 || cells[0] === "") return false;
-  return cells.every((cell) => NUMERIC_CELL.test(cell) && (delimiter !== "," || !cell.includes(",")));
-}
-
-function namesAColumn(text: string): boolean {
-  return splitCells(text, guessDelimiter(text)).some((cell) => {
-    try {
-      const column = parseColumnHeader(cell, 0);
-      return column.kind === "time" || (column.kind === "voltage" && column.unit !== "");
-    } catch {
-      return true; // a time column with an odd unit is still a header
-    }
-  });
 }
 
 function concatBytes(a: Uint8Array, b: Uint8Array): Uint8Array {

@@ -7,13 +7,20 @@
  * delimiters; quoted cells; a UTF-8 byte-order mark; CRLF or LF. Column cells are read by the importer's own
  * {@link parseColumnHeader}. This is a preview only; the worker's import is what decides.
  */
-import Papa from "papaparse";
 import { parseColumnHeader, type CaptureColumn } from "@/lib/analysis/columns";
+import {
+  guessDelimiter,
+  isNumericLine,
+  namesAColumn,
+  splitCells,
+  type CaptureDelimiter,
+} from "@/lib/analysis/header-lines";
+
+export type { CaptureDelimiter };
 
 /** Bytes of the file the upload form reads to find the header: enough for long preambles, tiny next to a capture. */
 export const SNIFF_BYTES = 64 * 1024;
 
-export type CaptureDelimiter = "," | ";" | "\t";
 
 export interface SniffedColumn {
   /** 0-based position in the row. */
@@ -43,28 +50,6 @@ export interface SniffedHeader {
 
 export type SniffResult = { ok: true; header: SniffedHeader } | { ok: false; message: string };
 
-const NUMERIC_CELL = /^[+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][+-]?\d+)?$/;
-
-function guessDelimiter(text: string): CaptureDelimiter {
-  if (text.includes("\t")) return "\t";
-  if (text.includes(";")) return ";";
-  return ",";
-}
-
-function splitCells(text: string, delimiter: CaptureDelimiter): string[] {
-  const cells = (Papa.parse<string[]>(text, { delimiter, quoteChar: '"' }).data[0] ?? []).map((cell) => cell.trim());
-  while (cells.length > 1 && cells[cells.length - 1] === "") cells.pop();
-  return cells;
-}
-
-function isNumericLine(text: string): boolean {
-  const delimiter = guessDelimiter(text);
-  const cells = text.split(delimiter).map((cell) => cell.trim().replace(/^"(.*)"$/, "$1"));
-  while (cells.length > 1 && cells[cells.length - 1] === "") cells.pop();
-  if (cells.length === 0 || cells[0] === "") return false;
-  return cells.every((cell) => NUMERIC_CELL.test(cell) && (delimiter !== "," || !cell.includes(",")));
-}
-
 function readColumn(cell: string, index: number, lineNumber: number): SniffedColumn {
   if (cell === "") return { index, header: "", name: "", unit: "", kind: "other" };
   try {
@@ -74,13 +59,6 @@ function readColumn(cell: string, index: number, lineNumber: number): SniffedCol
     // A time column with a unit the importer refuses: show it as a column, the worker reports the unit.
     return { index, header: cell, name: cell, unit: "", kind: "time" };
   }
-}
-
-function namesAColumn(text: string): boolean {
-  return splitCells(text, guessDelimiter(text)).some((cell, i) => {
-    const column = readColumn(cell, i, 0);
-    return column.kind === "time" || (column.kind === "voltage" && column.unit !== "");
-  });
 }
 
 interface Line {
