@@ -12,13 +12,15 @@ export interface BuildsTableSectionProps {
   /** Key prefix when the page has other lists with their own parameters (e.g. "b_"). */
   prefix?: string;
   showDesign?: boolean;
+  /** Across projects: show each build's project and design. */
+  showProject?: boolean;
   caption: string;
   emptyAction?: ReactNode;
   emptyText?: string;
 }
 
 /** Reads the table's query from the URL, asks the database for that page, and renders the table. */
-export async function BuildsTableSection({ projectId, designId, basePath, searchParams, prefix = "", showDesign, caption, emptyAction, emptyText }: BuildsTableSectionProps) {
+export async function BuildsTableSection({ projectId, designId, basePath, searchParams, prefix = "", showDesign, showProject, caption, emptyAction, emptyText }: BuildsTableSectionProps) {
   const { query, error } = parseTableQuery(searchParams, prefix);
   const sort = query.sort ?? "created";
   const page = await listBuildTable({
@@ -40,6 +42,7 @@ export async function BuildsTableSection({ projectId, designId, basePath, search
       keep={otherParams(searchParams, prefix)}
       prefix={prefix}
       showDesign={showDesign}
+      showProject={showProject}
       caption={caption}
       queryError={error}
       emptyAction={emptyAction}

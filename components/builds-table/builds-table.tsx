@@ -70,7 +70,7 @@ export function BuildsTable({
   const dir = query.dir ?? firstDirection(sort);
   const columns: Column[] = [
     { key: "label", label: "Build", sort: "label" },
-    ...(showProject ? [{ key: "project", label: "Project · design" }] : showDesign ? [{ key: "design", label: "Design", className: "hidden md:table-cell" }] : []),
+    ...(showProject ? [{ key: "project", label: "Project · design", className: "hidden md:table-cell" }] : showDesign ? [{ key: "design", label: "Design", className: "hidden md:table-cell" }] : []),
     { key: "state", label: "State", sort: "state" },
     { key: "runs", label: "Runs", sort: "runCount", numeric: true, className: "hidden sm:table-cell" },
     { key: "measured", label: "Latest measured", sort: "measuredHz", numeric: true },
@@ -207,9 +207,15 @@ export function BuildsTable({
                         {BUILD_KIND_NAMES[b.kind] ?? b.kind}
                         {b.kindRevision ? ` ${b.kindRevision}` : ""} · {b.builtByName}
                       </span>
+                      {showProject || showDesign ? (
+                        <span className="block max-w-[11rem] truncate text-xs text-ink-soft md:hidden">
+                          {showProject ? `${b.projectName} › ` : ""}
+                          {b.designName}
+                        </span>
+                      ) : null}
                     </Td>
                     {showProject ? (
-                      <Td className="text-sm">
+                      <Td className="hidden text-sm md:table-cell">
                         <Link href={`/projects/${b.projectId}`} className="text-ink-soft hover:text-copper hover:underline">
                           {b.projectName}
                         </Link>

@@ -6,7 +6,7 @@ import { Button } from "@/components/ui/button";
 export function PrintButton() {
   return (
     <Button type="button" onClick={() => window.print()} className="no-print">
-      <span aria-hidden="true">⎙</span> Print or save as PDF
+      Print or save as PDF
     </Button>
   );
 }

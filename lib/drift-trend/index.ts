@@ -2,3 +2,4 @@
 export * from "./implied-capacitance";
 export * from "./timeline";
 export * from "./run-comparison";
+export * from "./spectrum-overlay";
