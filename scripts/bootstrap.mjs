@@ -180,8 +180,6 @@ async function main() {
     FAKE_SMTP_API_URL: `http://127.0.0.1:${stack.smtpApiPort}`,
     NEXT_TELEMETRY_DISABLED: "1",
     NEXT_DIST_DIR: distDir,
-    // The AWS SDK warns on every process start that its 2027 releases will need Node 22; our versions are pinned.
-    NODE_OPTIONS: [process.env.NODE_OPTIONS, "--disable-warning=NodeVersionSupportWarning"].filter(Boolean).join(" "),
     TANKBOOK_PG_BIN: pgBin,
     TANKBOOK_PG_DATA: dataDir,
     TANKBOOK_PG_PORT: String(stack.pgPort),
