@@ -73,7 +73,9 @@ export function meterStream(source: Readable, limitBytes: number): MeteredStream
     },
   });
   source.on("error", (err) => stream.destroy(err));
-  source.pipe(stream);
+  // A source that failed before it was handed over would never end the pipe: fail the metered stream too.
+  if (source.errored) process.nextTick(() => stream.destroy(source.errored ?? undefined));
+  else source.pipe(stream);
   return {
     stream,
     result() {

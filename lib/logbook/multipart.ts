@@ -1,4 +1,4 @@
-import { Readable } from "node:stream";
+import { PassThrough, Readable } from "node:stream";
 import type { ReadableStream as NodeWebReadableStream } from "node:stream/web";
 import busboy from "busboy";
 import { BadRequestError, UnsupportedMediaTypeError } from "@/lib/errors";
@@ -39,7 +39,13 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
         return;
       }
       fileSeen = true;
-      resolve({ stream, filename: info.filename ?? "capture.csv", mimeType: info.mimeType ?? "" });
+      // The body can break off before the caller starts reading (it checks the build first): the failure is
+      // kept on the stream it gets, as a 400, instead of surfacing as an uncaught error on busboy's stream.
+      const out = new PassThrough();
+      out.on("error", () => undefined);
+      stream.on("error", (err) => out.destroy(malformed(err)));
+      stream.pipe(out);
+      resolve({ stream: out, filename: info.filename ?? "capture.csv", mimeType: info.mimeType ?? "" });
     });
     parser.on("close", () => {
       if (!fileSeen) reject(new BadRequestError(`No file in the field “${fileField}”.`, { [fileField]: ["missing"] }));

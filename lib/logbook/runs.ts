@@ -9,7 +9,7 @@ import { getTweak } from "@/db/queries/tweaks";
 import { getIdempotentRunId, markUploadSlotCompleted, saveIdempotencyKey } from "@/db/queries/uploads";
 import { requirePermission } from "@/lib/auth/require-permission";
 import type { CurrentUser } from "@/lib/auth/current-user-type";
-import { BadRequestError, ConflictError, NotFoundError, PayloadTooLargeError } from "@/lib/errors";
+import { AppError, BadRequestError, ConflictError, NotFoundError, PayloadTooLargeError } from "@/lib/errors";
 import { enqueueAnalysis } from "@/lib/jobs/queue";
 import { analyseDrift, type DriftAnalysis } from "@/lib/oscillator";
 import { captureObjectKey, deleteObject, headObject, presignGet, putObject } from "@/lib/storage";
@@ -179,6 +179,8 @@ export async function uploadRunFromStream(actor: Actor, input: StreamUploadInput
     input.stream.resume();
     await deleteObject(key).catch(() => undefined);
     if (metered.tooLarge()) throw new PayloadTooLargeError(`The file is over the ${formatBytes(uploadLimitBytes())} capture limit.`);
+    // A body that broke off mid-file is the client's fault (a 400 kept on the stream), not storage's.
+    if (input.stream.errored instanceof AppError) throw input.stream.errored;
     throw err;
   }
   const { sha256, sizeBytes } = metered.result();
