@@ -2,22 +2,48 @@ import { BadRequestError } from "@/lib/errors";
 
 // Small pieces the /api/v1 logbook handlers share.
 
+/**
+ * Where a NUL character (U+0000) sits in a parsed value, as a dotted path, or null when there is none.
+ * PostgreSQL text cannot hold it, so it is refused at the door instead of failing the insert with a 500.
+ */
+export function nulPath(value: unknown, path = ""): string | null {
+  if (typeof value === "string") return value.includes("\u0000") ? path || "(body)" : null;
+  if (value === null || typeof value !== "object") return null;
+  for (const [key, child] of Object.entries(value)) {
+    const here = path ? `${path}.${key}` : key;
+    if (key.includes("\u0000")) return here;
+    const found = nulPath(child, here);
+    if (found) return found;
+  }
+  return null;
+}
+
+function refuseNul(value: unknown, where: string): void {
+  const path = nulPath(value);
+  if (path) throw new BadRequestError(`Text cannot contain the NUL character (U+0000); ${where} has one in “${path}”.`, { [path]: ["contains U+0000"] });
+}
+
 /** The JSON body of a request; a body that is not JSON is a 400, not a 500. */
 export async function readJson(request: Request): Promise<unknown> {
   const type = request.headers.get("content-type") ?? "";
   if (!type.toLowerCase().includes("application/json")) {
     throw new BadRequestError("Send the body as JSON (Content-Type: application/json).");
   }
+  let body: unknown;
   try {
-    return await request.json();
+    body = await request.json();
   } catch {
     throw new BadRequestError("The body is not valid JSON.");
   }
+  refuseNul(body, "the body");
+  return body;
 }
 
 /** The query string as a plain object (repeated keys keep the last value). */
 export function queryObject(request: Request): Record<string, string> {
-  return Object.fromEntries(new URL(request.url).searchParams.entries());
+  const query = Object.fromEntries(new URL(request.url).searchParams.entries());
+  refuseNul(query, "the query string");
+  return query;
 }
 
 /** 201 Created with a Location header pointing at the new resource. */

@@ -53,10 +53,16 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
     parser.on("error", (err) => reject(malformed(err)));
   });
   const done = new Promise<Record<string, string>>((resolve, reject) => {
+    let nulField: string | null = null;
     parser.on("field", (name, value) => {
+      // PostgreSQL text cannot hold a NUL character; refused here rather than failing the insert with a 500.
+      if (value.includes("\u0000") || name.includes("\u0000")) nulField ??= name;
       fields[name] = value;
     });
-    parser.on("close", () => resolve(fields));
+    parser.on("close", () => {
+      if (nulField === null) resolve(fields);
+      else reject(new BadRequestError(`Text cannot contain the NUL character (U+0000); the field “${nulField}” has one.`, { [nulField]: ["contains U+0000"] }));
+    });
     parser.on("error", (err) => reject(malformed(err)));
   });
   // Either promise may go unawaited when the other fails first; their rejections are handled by the caller's.
