@@ -24,7 +24,8 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
   if (!request.body) throw new BadRequestError(`The request has no body; put the capture in the field “${fileField}”.`);
   let parser: busboy.Busboy;
   try {
-    parser = busboy({ headers: { "content-type": type }, limits: { files: 5, fields: 30, fieldSize: 16 * 1024 } });
+    // Clients write a file name's UTF-8 bytes as they are (curl, browsers); busboy would read them as Latin-1.
+    parser = busboy({ headers: { "content-type": type }, defParamCharset: "utf8", limits: { files: 5, fields: 30, fieldSize: 16 * 1024 } });
   } catch (err) {
     throw new BadRequestError(`The multipart body cannot be read: ${err instanceof Error ? err.message : String(err)}.`);
   }
