@@ -9,7 +9,8 @@ import type { FormState } from "@/lib/auth/action-state";
 import { TOPOLOGIES, TOPOLOGY_PARTS, type Topology } from "@/lib/oscillator/design";
 import { formatQuantity } from "@/lib/format/numbers";
 import { cn } from "@/lib/utils";
-import { EMISSIONS_SAFETY_NOTE, SPEC_PRESETS, type SpecPreset } from "@/lib/spec/presets";
+import { SpecPresetPicker } from "@/components/review/spec-preset-picker";
+import { applyPresetToText, specOfText } from "@/components/review/spec-preset-draft";
 import { TOPOLOGY_NAMES } from "./design-model";
 import { previewDesign, switchTopology, type DesignDraft, type PartDraft, type SpecDraft } from "./design-draft";
 import { PredictionPanel } from "./prediction-panel";
@@ -28,17 +29,6 @@ async function saveNothing(state: FormState): Promise<FormState> {
 }
 
 const UNIT_WORD = { inductance: "H", capacitance: "F", coupling: "" } as const;
-
-/** A preset's fields as form text; the target frequency always stays the engineer's. */
-function applyPreset(spec: SpecDraft, preset: SpecPreset): SpecDraft {
-  const next = { ...spec };
-  const p = preset.spec;
-  if (typeof p.maxHarmonicDbc === "number") next.maxHarmonicDbc = String(p.maxHarmonicDbc);
-  if (typeof p.maxThdPercent === "number") next.maxThdPercent = String(p.maxThdPercent);
-  if (typeof p.toleranceValue === "number") next.toleranceValue = String(p.toleranceValue);
-  if (p.toleranceUnit) next.toleranceUnit = p.toleranceUnit;
-  return next;
-}
 
 /**
  * Create or edit a design. The prediction beside the form is recomputed as values are typed, in the browser, with
@@ -362,31 +352,7 @@ function SpecFields({
           {text("minFundamentalVpk", "Minimum amplitude (V peak)", { placeholder: "e.g. 0.5" })}
           {text("maxDriftPpm", "Maximum drift within one record (ppm)", { placeholder: "e.g. 50" })}
         </div>
-        <div className="rounded-md border border-rule bg-paper px-3 py-3">
-          <p className="text-xs font-semibold text-ink">Example limits — pick one as a starting point, then adapt it</p>
-          <ul className="mt-2 grid gap-2 sm:grid-cols-2">
-            {SPEC_PRESETS.map((p) => (
-              <li key={p.id}>
-                <button
-                  type="button"
-                  onClick={() => setSpec(applyPreset(spec, p))}
-                  className="h-full w-full rounded-md border border-rule-strong bg-paper-raised px-2.5 py-1.5 text-left text-xs hover:border-copper"
-                >
-                  <span className="block font-semibold text-ink">
-                    <span className="sr-only">Use the example </span>
-                    {p.label}
-                    <span className="ml-1 rounded bg-paper-sunk px-1 py-px text-[10px] font-medium uppercase tracking-wide text-ink-soft">example</span>
-                  </span>
-                  <span className="block text-ink-soft">{p.summary}</span>
-                  <span className="block text-ink-faint">{p.basis === "law" ? `From ${p.basisNote}` : p.basisNote}</span>
-                </button>
-              </li>
-            ))}
-          </ul>
-          <p className="mt-3 text-xs leading-relaxed text-ink-soft">
-            <strong className="font-semibold text-ink">Safety.</strong> {EMISSIONS_SAFETY_NOTE}
-          </p>
-        </div>
+        <SpecPresetPicker spec={specOfText(spec)} onApply={(preset) => setSpec(applyPresetToText(spec, preset.id))} />
       </CardBody>
     </Card>
   );

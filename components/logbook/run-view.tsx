@@ -4,6 +4,7 @@ import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { SpectrumChart } from "@/components/charts/spectrum-chart";
+import { ResultsJsonLink } from "@/components/review/export-links";
 import { WaveformChart } from "@/components/charts/waveform-chart";
 import { fetchJson } from "@/components/providers/query-provider";
 import { buttonVariants, Button } from "@/components/ui/button";
@@ -162,6 +163,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
           <a href={`/api/v1/runs/${runId}/capture`} download={run.originalFilename} className={buttonVariants({ variant: "secondary", size: "sm" })}>
             <span aria-hidden="true">↓</span> Raw capture
           </a>
+          {done ? <ResultsJsonLink runId={runId} /> : null}
           {canReanalyse && isFinished(run.status) && reanalyse ? (
             <Button size="sm" variant="secondary" onClick={() => reanalyseMutation.mutate()} disabled={reanalyseMutation.isPending}>
               <span aria-hidden="true">↻</span> {reanalyseMutation.isPending ? "Re-queueing…" : "Re-analyse"}
@@ -309,7 +311,7 @@ function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFi
         label="Fundamental amplitude"
         value={formatQuantity(figures.fundamentalVpk, "V", 4)}
         detail={amplitudeDbv === null ? "peak" : `peak · ${formatDecibels(amplitudeDbv, "dBV")}`}
-        note={run.probeAttenuation !== 1 ? `Logged with a ×${run.probeAttenuation} probe` : undefined}
+        note={run.probeAttenuation !== 1 ? `Volts scaled ×${run.probeAttenuation} for the probe` : undefined}
       />
     </dl>
   );

@@ -28,6 +28,9 @@ import { can } from "@/lib/auth/permissions";
 import { BadRequestError } from "@/lib/errors";
 import { formatDateTime } from "@/lib/format/dates";
 import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
+import { loadBuildReview } from "@/components/review/build-review-data";
+import { BuildToolsBar, DriftStoryCard, FlagsCard, ImpliedCapacitanceCard, RetuneSuggestionCard, SignOffCard } from "@/components/review/build-review-panels";
+import { E_SERIES_NAMES, type ESeriesName } from "@/lib/oscillator/e-series";
 import { BuildActions } from "./build-actions";
 
 type Props = {
@@ -59,6 +62,8 @@ export default async function BuildPage({ params, searchParams }: Props) {
   const verdict = VERDICTS.find((v) => v === verdictParam);
   const statusParam = one(search.status);
   const status = STATUSES.find((s) => s === statusParam);
+  const seriesParam = one(search.series);
+  const series: ESeriesName = E_SERIES_NAMES.find((s) => s === seriesParam) ?? "E12";
 
   const build = await getBuild(buildId);
   if (!build) notFound();
@@ -80,6 +85,7 @@ export default async function BuildPage({ params, searchParams }: Props) {
 
   const topology = design.topology;
   const rev = design.revision;
+  const review = await loadBuildReview(user, build, topology, { series });
   const asBuiltModel = designOfRevision(topology, { parts: build.asBuilt, extraCapacitanceF: rev.extraCapacitanceF, windings: rev.windings });
   let report: DesignReport | null = null;
   let predictionError: string | null = null;
@@ -176,6 +182,10 @@ export default async function BuildPage({ params, searchParams }: Props) {
         </div>
       ) : null}
 
+      <div className="mb-5">
+        <BuildToolsBar data={review} build={build} csvFilters={{ verdict, status }} />
+      </div>
+
       {/* Phones read actions, then the story, then the details; wide screens put the story beside both. */}
       <div className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_24rem] lg:grid-rows-[auto_1fr] lg:items-start">
         {canTweak || canUpload ? (
@@ -194,6 +204,9 @@ export default async function BuildPage({ params, searchParams }: Props) {
           </div>
         ) : null}
         <div className="min-w-0 space-y-3 lg:col-start-1 lg:row-span-2 lg:row-start-1">
+          <div className="mb-5">
+            <DriftStoryCard data={review} canUpload={canUpload} />
+          </div>
           <div className="flex flex-wrap items-end justify-between gap-2">
             <h2 className="text-base font-semibold text-ink">Runs and tweaks</h2>
             <form action={base} method="get" className="flex flex-wrap items-center gap-2" aria-label="Filter runs">
@@ -247,9 +260,23 @@ export default async function BuildPage({ params, searchParams }: Props) {
               <PageNav basePath={base} params={{ verdict, status }} nextCursor={runs.nextCursor} hasCursor={Boolean(cursor)} shown={runs.items.length} noun="runs" />
             </>
           )}
+          <div className="pt-2">
+            <ImpliedCapacitanceCard data={review} />
+          </div>
         </div>
 
         <div className={`min-w-0 space-y-5 lg:col-start-2 ${canTweak || canUpload ? "lg:row-start-2" : "lg:row-start-1"}`}>
+          <RetuneSuggestionCard
+            data={review}
+            user={user}
+            buildId={buildId}
+            series={series}
+            hrefForSeries={(s) => `${base}?${new URLSearchParams({ ...(verdict ? { verdict } : {}), ...(status ? { status } : {}), series: s })}`}
+          />
+          <SignOffCard data={review} user={user} build={build} />
+          <div id="flags" className="scroll-mt-4">
+            <FlagsCard data={review} user={user} buildId={buildId} runNames={Object.fromEntries(review.series.runs.map((r) => [r.id, r.originalFilename]))} />
+          </div>
           <section aria-labelledby="as-built-heading" className="space-y-1.5">
             <h2 id="as-built-heading" className="text-sm font-semibold text-ink">
               As built now

@@ -20,6 +20,10 @@ import { BadRequestError } from "@/lib/errors";
 import { formatDate, formatDateTime } from "@/lib/format/dates";
 import { formatQuantity } from "@/lib/format/numbers";
 import { TOPOLOGIES, type Topology } from "@/lib/oscillator/design";
+import { BuildsTableSection } from "@/components/builds-table/builds-table-section";
+import { FollowButton } from "@/components/review/follow-button";
+import { isFollowingProject } from "@/db/queries/follows";
+import { followProjectAction } from "@/app/(app)/builds/[buildId]/review-actions";
 
 type Props = {
   params: Promise<{ projectId: string }>;
@@ -57,6 +61,7 @@ export default async function ProjectPage({ params, searchParams }: Props) {
     page = await listDesigns(projectId, { q, topology, limit: 25 });
   }
   const canDesign = can(user.role, "design:write");
+  const followsProject = await isFollowingProject(user.id, projectId);
   const base = `/projects/${projectId}`;
 
   const rows: SortableRow[] = page.items.map((d) => {
@@ -171,6 +176,27 @@ export default async function ProjectPage({ params, searchParams }: Props) {
           <PageNav basePath={base} params={{ q, topology }} nextCursor={page.nextCursor} hasCursor={Boolean(cursor)} shown={page.items.length} noun="designs" />
         </>
       )}
+
+      <section id="builds" aria-labelledby="project-builds-heading" className="mt-8 scroll-mt-4 space-y-2">
+        <div className="flex flex-wrap items-start justify-between gap-3">
+          <div>
+            <h2 id="project-builds-heading" className="text-base font-semibold text-ink">
+              Builds
+            </h2>
+            <p className="text-xs text-ink-soft">Every build of every design here: state, latest measured frequency, drift and THD.</p>
+          </div>
+          <FollowButton action={followProjectAction.bind(null, projectId)} target="project" following={followsProject} />
+        </div>
+        <BuildsTableSection
+          projectId={projectId}
+          basePath={base}
+          searchParams={search}
+          prefix="b_"
+          showDesign
+          caption={`Builds of ${project.name}`}
+          emptyText="Builds appear here once someone starts one from a design's page."
+        />
+      </section>
     </>
   );
 }

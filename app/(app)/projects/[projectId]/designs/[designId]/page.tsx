@@ -3,30 +3,26 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
 import { BuildForm } from "@/components/logbook/build-form";
-import { BUILD_KIND_NAMES, buildBadge } from "@/components/logbook/build-status";
 import { CreatePanel } from "@/components/logbook/create-panel";
 import { draftFromRevision } from "@/components/logbook/design-draft";
 import { DesignForm } from "@/components/logbook/design-form";
 import { designOfRevision, predictedHzOf, specPhrases, TOPOLOGY_NAMES } from "@/components/logbook/design-model";
-import { PageNav } from "@/components/logbook/page-nav";
 import { PartsTable } from "@/components/logbook/parts-table";
 import { PredictionPanel } from "@/components/logbook/prediction-panel";
 import { isRowId } from "@/components/logbook/route-ids";
-import { SortableTable, type SortableRow } from "@/components/logbook/sortable-table";
 import { buttonVariants } from "@/components/ui/button";
 import { Card, CardBody, CardHeader } from "@/components/ui/card";
-import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
-import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { listBuilds, type BuildSummary } from "@/db/queries/builds";
 import { getDesign, listDesignRevisions } from "@/db/queries/designs";
 import type { Page } from "@/db/queries/pagination";
 import { requireUser } from "@/lib/auth/current-user";
 import { can } from "@/lib/auth/permissions";
 import { BadRequestError } from "@/lib/errors";
-import { formatDate, formatDateTime } from "@/lib/format/dates";
-import { formatDrift, formatQuantity } from "@/lib/format/numbers";
+import { formatDateTime } from "@/lib/format/dates";
+import { formatQuantity } from "@/lib/format/numbers";
 import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
+import { BuildsTableSection } from "@/components/builds-table/builds-table-section";
 import { createBuildAction } from "../actions";
 
 type Props = {
@@ -83,37 +79,6 @@ export default async function DesignPage({ params, searchParams }: Props) {
   const canEdit = can(user.role, "design:write");
   const canBuild = can(user.role, "build:create");
 
-  const rows: SortableRow[] = builds.items.map((b) => {
-    const badge = buildBadge(b.status, b.latestRun);
-    const drift = formatDrift(b.latestRun?.driftPpm);
-    return {
-      key: b.id,
-      cells: {
-        label: (
-          <Link href={`/builds/${b.id}`} className="font-medium text-ink underline-offset-2 hover:text-copper hover:underline">
-            {b.label}
-          </Link>
-        ),
-        kind: `${BUILD_KIND_NAMES[b.kind] ?? b.kind}${b.kindRevision ? ` ${b.kindRevision}` : ""}`,
-        state: <VerdictBadge verdict={badge.verdict} label={badge.label} />,
-        builtBy: b.builtByName,
-        runs: b.runCount,
-        measured: formatQuantity(b.latestRun?.measuredHz, "Hz", 6),
-        drift: drift.ppm,
-        created: formatDate(b.createdAt),
-      },
-      sort: {
-        label: b.label,
-        kind: b.kind,
-        state: badge.label ?? badge.verdict,
-        builtBy: b.builtByName,
-        runs: b.runCount,
-        measured: b.latestRun?.measuredHz ?? null,
-        drift: b.latestRun?.driftPpm ?? null,
-        created: new Date(b.createdAt).getTime(),
-      },
-    };
-  });
 
   return (
     <>
@@ -209,31 +174,17 @@ export default async function DesignPage({ params, searchParams }: Props) {
             <BuildForm action={createBuildAction.bind(null, designId)} suggestedLabel={nextLabel(builds.items.map((b) => b.label))} />
           </CreatePanel>
         ) : null}
-        {builds.items.length === 0 ? (
-          <EmptyState title="No builds of this design yet">
-            {canBuild
+        <BuildsTableSection
+          designId={designId}
+          basePath={base}
+          searchParams={search}
+          caption={`Builds of ${design.name}`}
+          emptyText={
+            canBuild
               ? "Create a build when a prototype is on the bench; then log its tweaks and upload a capture after each one."
-              : "Technicians add builds when a prototype is on the bench."}
-          </EmptyState>
-        ) : (
-          <>
-            <SortableTable
-              caption={`Builds of ${design.name}`}
-              columns={[
-                { key: "label", label: "Build" },
-                { key: "kind", label: "Kind", className: "hidden sm:table-cell" },
-                { key: "state", label: "State" },
-                { key: "builtBy", label: "Built by", className: "hidden md:table-cell" },
-                { key: "runs", label: "Runs", numeric: true },
-                { key: "measured", label: "Latest f", numeric: true },
-                { key: "drift", label: "Drift", numeric: true, className: "hidden sm:table-cell" },
-                { key: "created", label: "Created", numeric: true, className: "hidden md:table-cell" },
-              ]}
-              rows={rows}
-            />
-            <PageNav basePath={base} params={{}} nextCursor={builds.nextCursor} hasCursor={Boolean(cursor)} shown={builds.items.length} noun="builds" />
-          </>
-        )}
+              : "Technicians add builds when a prototype is on the bench."
+          }
+        />
       </section>
 
       <section aria-labelledby="history-heading" className="mt-8">
