@@ -1,7 +1,9 @@
 /**
  * The `analyze` command: runs the capture analysis engine on one CSV file.
  *
- *   npm run -s analyze -- FILE [--channel NAME] [--harmonics N] [--json]
+ *   npm run -s analyze -- FILE [--channel NAME] [--harmonics N] [--probe N] [--json]
+ *
+ * --probe N multiplies the file's volts by a probe's attenuation, for a scope that was not told about the probe.
  *
  * --json prints one JSON object (the analysis result, SI units, no plot data) on stdout; without it
  * a short table. Bad input: exit status 1, one line on stderr, nothing on stdout. Bad usage: 2.
@@ -11,6 +13,7 @@ import { MessageChannel, receiveMessageOnPort, Worker } from "node:worker_thread
 import {
   analysisChannels,
   analyzeCapture,
+  applyProbeAttenuation,
   type AnalysisResult,
   type AnalyzeOptions,
   CaptureImporter,
@@ -20,7 +23,7 @@ import {
   windowedSpectrum,
 } from "../lib/analysis";
 
-const USAGE = "usage: analyze FILE [--channel NAME] [--harmonics N] [--json]";
+const USAGE = "usage: analyze FILE [--channel NAME] [--harmonics N] [--probe N] [--json]";
 const CHUNK_BYTES = 1 << 20;
 
 class UsageError extends Error {}
@@ -29,6 +32,7 @@ interface Arguments {
   file: string;
   channel?: string;
   harmonics?: number;
+  probe: number;
   json: boolean;
 }
 
@@ -36,15 +40,19 @@ function parseArguments(argv: string[]): Arguments {
   let file: string | undefined;
   let channel: string | undefined;
   let harmonics: number | undefined;
+  let probe = 1;
   let json = false;
   for (let i = 0; i < argv.length; i++) {
     const arg = argv[i];
     if (arg === "--json") json = true;
-    else if (arg === "--channel" || arg === "--harmonics") {
+    else if (arg === "--channel" || arg === "--harmonics" || arg === "--probe") {
       const value = argv[++i];
       if (value === undefined) throw new UsageError(`${arg} needs a value; ${USAGE}`);
       if (arg === "--channel") channel = value;
-      else {
+      else if (arg === "--probe") {
+        probe = Number(value.replace(/^x|x$|:1$/gi, ""));
+        if (!Number.isFinite(probe) || probe < 1) throw new UsageError(`--probe must be a number of at least 1 (10, 10x, 10:1), got '${value}'`);
+      } else {
         harmonics = Number(value);
         if (!Number.isInteger(harmonics) || harmonics < 1 || harmonics > 100) {
           throw new UsageError(`--harmonics must be an integer from 1 to 100, got '${value}'`);
@@ -56,7 +64,7 @@ function parseArguments(argv: string[]): Arguments {
     else throw new UsageError(`one file only, got '${file}' and '${arg}'; ${USAGE}`);
   }
   if (file === undefined) throw new UsageError(USAGE);
-  return { file, channel, harmonics, json };
+  return { file, channel, harmonics, probe, json };
 }
 
 /** Streams the file through the importer in 1 MB chunks: the text never sits in memory whole. */
@@ -171,7 +179,7 @@ function main(argv: string[]): number {
   try {
     const args = parseArguments(argv);
     const worker = startSpectrumWorker();
-    const capture = importFile(args.file);
+    const capture = applyProbeAttenuation(importFile(args.file), args.probe);
     const options: AnalyzeOptions = { channel: args.channel, harmonics: args.harmonics, plot: false };
     if (worker && capture.samples >= PARALLEL_SPECTRUM_SAMPLES) options.spectrumOf = spectrumFromWorker(worker, capture, options);
     else void worker?.terminate();

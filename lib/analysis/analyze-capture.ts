@@ -89,6 +89,11 @@ export interface AnalysisResult {
   largestSpur: Spur | null;
   cycles: number;
   samplesPerCycle: number;
+  /**
+   * Frequency of the first and last thirds of the record (distortion removed), for a spec that limits the drift
+   * within one capture; null when the record holds too few periods to fit its thirds.
+   */
+  inRecordDrift: InRecordDrift | null;
   warnings: AnalysisWarning[];
   twoChannel: TwoChannelResult | null;
   /** Preamble metadata of the file, when the result came from a capture. */
@@ -97,6 +102,15 @@ export interface AnalysisResult {
   channels: string[];
   timeSource: TimeSource | "samples";
   method: AnalysisMethod;
+}
+
+/** The in-record drift check's figures: last third minus first third, relative to the first, in ppm. */
+export interface InRecordDrift {
+  firstThirdHz: number;
+  lastThirdHz: number;
+  ppm: number;
+  /** |difference| in combined standard deviations of the two fits; null when both fits are exact (no noise). */
+  sigmas: number | null;
 }
 
 /** Wall time of each stage, milliseconds (only when asked for). */
@@ -358,6 +372,14 @@ function analyzeRecord(
     largestSpur: spur,
     cycles,
     samplesPerCycle,
+    inRecordDrift: drift
+      ? {
+          firstThirdHz: drift.firstThirdHz,
+          lastThirdHz: drift.lastThirdHz,
+          ppm: ((drift.lastThirdHz - drift.firstThirdHz) / drift.firstThirdHz) * 1e6,
+          sigmas: finiteOrNull(drift.sigmas),
+        }
+      : null,
     warnings,
     twoChannel,
     metadata: {},

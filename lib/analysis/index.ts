@@ -24,6 +24,7 @@ export type {
   AnalyzeOptions,
   CaptureAnalysis,
   Harmonic,
+  InRecordDrift,
   Spur,
   TwoChannelResult,
 } from "./analyze-capture";
@@ -31,6 +32,7 @@ export { CaptureImporter, importCapture, MIN_SAMPLES } from "./csv-import";
 export type { Capture, CaptureChannel, CaptureImportOptions, TimeSource } from "./csv-import";
 export type { CaptureColumn, ColumnKind } from "./columns";
 export { CaptureImportError } from "./errors";
+export { applyProbeAttenuation } from "./probe";
 export type { HarmonicMarker, PlotData, SpectrumPlot, WaveformEnvelope } from "./plot";
 export { windowedSpectrum } from "./spectrum";
 export type { Spectrum, SpectrumOptions } from "./spectrum";

@@ -56,7 +56,7 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
       objectKey: run.objectKey,
       sizeBytes: run.sizeBytes,
       channel: run.channel,
-      measureInRecordDrift: typeof run.snapshot.spec?.maxDriftPpm === "number",
+      probeAttenuation: run.probeAttenuation,
     });
     const delay = testDelayMs();
     if (delay) await new Promise((resolve) => setTimeout(resolve, delay));
@@ -82,7 +82,7 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
     thdPercent: Number.isFinite(result.thdPercent) ? result.thdPercent : null,
     harmonics: result.harmonics,
     fundamentalVpk: result.fundamentalVpk,
-    inRecordDriftPpm: output.inRecordDriftPpm,
+    inRecordDriftPpm: result.inRecordDrift?.ppm ?? null,
     warnings: result.warnings,
   });
   const derived = derivedColumns(run, result);
@@ -101,7 +101,7 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
         fundamentalVpk: result.fundamentalVpk,
         thdPercent: Number.isFinite(result.thdPercent) ? result.thdPercent : null,
         worstHarmonicDbc: worstHarmonicDbc(result),
-        inRecordDriftPpm: output.inRecordDriftPpm,
+        inRecordDriftPpm: result.inRecordDrift?.ppm ?? null,
         specChecks: evaluation.checks,
         verdict: evaluation.verdict,
       },
