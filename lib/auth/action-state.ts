@@ -1,5 +1,5 @@
 import type { ZodError } from "zod";
-import { AppError } from "@/lib/errors";
+import { AppError, UNAVAILABLE_MESSAGES, unavailableService } from "@/lib/errors";
 import { MailError } from "@/lib/mail/errors";
 
 /** What a server action hands back to its form: field errors shown beside the fields, one message on top. */
@@ -48,6 +48,11 @@ export function stateFromError(err: unknown): FormState {
   if (err instanceof MailError) {
     console.error("mail failed in a server action:", err.message);
     return { message: "The e-mail could not be sent just now. Try again in a minute; if it keeps failing, tell your admin." };
+  }
+  const unavailable = unavailableService(err);
+  if (unavailable) {
+    console.error(`server action: ${unavailable} unavailable: ${err instanceof Error ? err.message : String(err)}`);
+    return { message: UNAVAILABLE_MESSAGES[unavailable] };
   }
   console.error("unexpected error in a server action:", err);
   return { message: "Something failed on the server. Nothing was changed; try again." };

@@ -1,5 +1,5 @@
 import { ZodError } from "zod";
-import { AppError, TooManyRequestsError } from "@/lib/errors";
+import { AppError, TooManyRequestsError, UNAVAILABLE_MESSAGES, unavailableService } from "@/lib/errors";
 
 const titles: Record<number, string> = {
   400: "Bad request",
@@ -62,6 +62,12 @@ export function problemFromError(err: unknown): Response {
     const headers: Record<string, string> = {};
     if (err instanceof TooManyRequestsError) headers["retry-after"] = String(err.retryAfterSeconds);
     return problem(err.status, err.message, { type: err.type, ...(err.fields ? { fields: err.fields } : {}) }, headers);
+  }
+  const unavailable = unavailableService(err);
+  if (unavailable) {
+    // A storage or database outage is not a bug: one line in the log, and a retryable answer for the client.
+    console.error(`route handler: ${unavailable} unavailable: ${err instanceof Error ? err.message : String(err)}`);
+    return problem(503, UNAVAILABLE_MESSAGES[unavailable], { type: `${unavailable}-unavailable` }, { "retry-after": "30" });
   }
   console.error("unhandled error in a route handler:", err);
   return problem(500, "Something failed on the server. Nothing you had stored was changed.");
