@@ -1,12 +1,27 @@
 // `npm run worker`: a standalone analysis worker. Run as many as you like, on any machine that reaches the
 // same PostgreSQL and object storage (DATABASE_URL, S3_*); `npm start` runs one beside the web server.
 import { closeDb } from "../db/index";
+import { unavailableService } from "../lib/errors";
 import { startAnalysisWorker } from "../lib/jobs/worker";
 import { stopSender } from "../lib/jobs/queue";
 
 function log(line: string): void {
   process.stdout.write(`[worker ${process.pid}] ${line}\n`);
 }
+
+// pg-boss 10 reports a finished job with complete()/fail() calls it does not await (manager.js, work()): while
+// PostgreSQL is down those promises reject with no one listening, and Node would end this process. The job is
+// not lost (it stays active in the queue and is retried when it expires), so such a rejection is logged and the
+// worker keeps polling until the database is back. Anything else unhandled still stops the worker.
+process.on("unhandledRejection", (reason) => {
+  const message = reason instanceof Error ? reason.message : String(reason);
+  if (unavailableService(reason) === "database") {
+    log(`database unavailable, the queue will retry: ${message}`);
+    return;
+  }
+  log(`unhandled rejection: ${reason instanceof Error ? (reason.stack ?? message) : message}`);
+  process.exit(1);
+});
 
 async function main(): Promise<void> {
   const worker = await startAnalysisWorker({ log });
