@@ -243,7 +243,7 @@ export async function seedDemoLogbook(ctx: LogbookSeedContext): Promise<void> {
               originalFilename: step.file,
               expectedSizeBytes: body.length,
               meta: runMetadataSchema.parse({
-                probe: "10",
+                probe: "1", // the scope was told about its 10:1 probe, so the file already holds circuit volts
                 supplyV: "12",
                 temperatureC: String(step.temperatureC ?? 23),
                 note: step.note ?? "",
