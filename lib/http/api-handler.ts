@@ -24,6 +24,20 @@ async function limitWrites(request: Request, user: CurrentUser | null): Promise<
   }
 }
 
+/** Largest unread request body still read to its end after a refusal. */
+const DRAIN_LIMIT_BYTES = 1024 * 1024;
+
+/**
+ * A refusal made before the body was read (401, 403, 415, 429…) still reads a small body to its end and drops
+ * it: otherwise the connection is reset under a client that is still sending, and it never sees the answer.
+ */
+function discardUnreadBody(request: Request): void {
+  if (!request.body || request.bodyUsed) return;
+  const length = Number(request.headers.get("content-length") ?? Number.NaN);
+  if (!(length <= DRAIN_LIMIT_BYTES)) return;
+  void request.body.pipeTo(new WritableStream()).catch(() => undefined);
+}
+
 /** The second argument Next passes a route handler; `params` is a promise in Next 15+. */
 export interface RouteContext<P = Record<string, string | string[]>> {
   params: Promise<P>;
@@ -63,6 +77,7 @@ export function apiHandler<P>(
       if (!response.headers.has("cache-control")) response.headers.set("cache-control", "no-store");
       return response;
     } catch (err) {
+      discardUnreadBody(request);
       return problemFromError(err);
     }
   };

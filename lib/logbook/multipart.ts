@@ -71,6 +71,11 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
   done.catch(() => undefined);
   const body = Readable.fromWeb(request.body as unknown as NodeWebReadableStream);
   body.on("error", (err) => parser.destroy(err));
+  // After a parse error the rest of the body is read and dropped, so the client still sees the 400.
+  parser.on("error", () => {
+    body.unpipe(parser);
+    body.resume();
+  });
   body.pipe(parser);
   return { file, fields: done };
 }
