@@ -6,14 +6,32 @@ import { BadRequestError } from "@/lib/errors";
  * Where a NUL character (U+0000) sits in a parsed value, as a dotted path, or null when there is none.
  * PostgreSQL text cannot hold it, so it is refused at the door instead of failing the insert with a 500.
  */
-export function nulPath(value: unknown, path = ""): string | null {
-  if (typeof value === "string") return value.includes("\u0000") ? path || "(body)" : null;
-  if (value === null || typeof value !== "object") return null;
-  for (const [key, child] of Object.entries(value)) {
-    const here = path ? `${path}.${key}` : key;
-    if (key.includes("\u0000")) return here;
-    const found = nulPath(child, here);
-    if (found) return found;
+export function nulPath(value: unknown): string | null {
+  // Iterative, with the path kept as links to the parent: a body nested thousands deep is valid JSON and must
+  // neither overflow the stack nor build a path string per level here.
+  interface Node {
+    item: unknown;
+    key: string;
+    parent: Node | null;
+  }
+  const pathOf = (node: Node): string => {
+    const keys: string[] = [];
+    for (let n: Node | null = node; n?.parent; n = n.parent) keys.push(n.key);
+    return keys.reverse().join(".") || "(body)";
+  };
+  const pending: Node[] = [{ item: value, key: "", parent: null }];
+  while (pending.length > 0) {
+    const node = pending.pop()!;
+    if (typeof node.item === "string") {
+      if (node.item.includes("\u0000")) return pathOf(node);
+      continue;
+    }
+    if (node.item === null || typeof node.item !== "object") continue;
+    for (const [key, child] of Object.entries(node.item)) {
+      const next = { item: child, key, parent: node };
+      if (key.includes("\u0000")) return pathOf(next);
+      pending.push(next);
+    }
   }
   return null;
 }
