@@ -115,7 +115,7 @@ export function FlagsCard({ data, user, buildId, runNames }: { data: BuildReview
         description="Each broken spec rule of each run: measured, limit and margin."
       />
       <CardBody>
-        <FlagsList flags={data.flags} runNames={runNames} acknowledge={can(user.role, "flag:acknowledge") ? acknowledgeFlagAction.bind(null, buildId) : undefined} />
+        <FlagsList flags={data.flags} runNames={runNames} limit={4} acknowledge={can(user.role, "flag:acknowledge") ? acknowledgeFlagAction.bind(null, buildId) : undefined} />
       </CardBody>
     </Card>
   );

@@ -21,7 +21,7 @@ export function FollowButton({ action, target, following, reason }: FollowButton
   return (
     <form action={formAction} className="flex flex-col items-start gap-1">
       <input type="hidden" name="following" value={following ? "false" : "true"} />
-      <Button type="submit" size="sm" variant={following ? "secondary" : "primary"} disabled={pending} aria-pressed={following}>
+      <Button type="submit" size="sm" variant="secondary" disabled={pending} aria-pressed={following}>
         <span aria-hidden="true">{following ? "★" : "☆"}</span>
         {pending ? "Saving…" : following ? `Following this ${target}` : `Follow this ${target}`}
       </Button>
