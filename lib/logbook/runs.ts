@@ -261,8 +261,11 @@ export async function getRunView(user: CurrentUser | null, runId: string) {
 /** A build's runs, newest first, filtered (for the API and the build page's table). */
 export async function listBuildRuns(user: CurrentUser | null, buildId: string, filter: q.RunFilter = {}) {
   requirePermission(user, "read");
-  if (!isId(buildId) || !(await getBuild(buildId))) throw new NotFoundError("The build");
-  return q.listRuns(buildId, filter);
+  if (!isId(buildId)) throw new NotFoundError("The build");
+  const page = await q.listRuns(buildId, filter);
+  // A page with runs on it proves the build exists; only an empty page needs the second query.
+  if (page.items.length === 0 && !(await getBuild(buildId))) throw new NotFoundError("The build");
+  return page;
 }
 
 /** The plot data of an analysed run (waveform envelope, spectrum in dBV, harmonic markers); null until done. */
