@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
+import { cache } from "react";
 import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
 import { isRowId } from "@/components/logbook/route-ids";
 import { RunView } from "@/components/logbook/run-view";
@@ -17,9 +18,12 @@ import { reanalyseRunAction } from "./actions";
 
 type Params = { params: Promise<{ runId: string }> };
 
+// The title and the page read the same run: one query per request, not two.
+const loadRun = cache(getRun);
+
 export async function generateMetadata({ params }: Params): Promise<Metadata> {
   const { runId } = await params;
-  const run = isRowId(runId) ? await getRun(runId) : null;
+  const run = isRowId(runId) ? await loadRun(runId) : null;
   return { title: run ? `Run ${run.originalFilename}` : "Run" };
 }
 
@@ -27,7 +31,7 @@ export default async function RunPage({ params }: Params) {
   const { runId } = await params;
   const user = await requireUser(`/runs/${runId}`);
   if (!isRowId(runId)) notFound();
-  const run = await getRun(runId);
+  const run = await loadRun(runId);
   if (!run) notFound();
   const [build, tweak] = await Promise.all([getBuild(run.buildId), run.tweakId ? getTweak(run.tweakId) : null]);
   if (!build) notFound();
