@@ -235,7 +235,9 @@ export function BuildsTable({
                       {r?.outsideBand ? <span className="mt-0.5 block whitespace-nowrap text-[11px] text-verdict-warn">outside the band</span> : null}
                     </Td>
                     <Td numeric className="hidden sm:table-cell">
-                      {b.runCount}
+                      <Link href={`/builds/${b.id}`} className="hover:text-copper hover:underline">
+                        {b.runCount}
+                      </Link>
                     </Td>
                     <Td numeric className="whitespace-nowrap">
                       {r ? (
@@ -248,11 +250,23 @@ export function BuildsTable({
                       {f.uncertainty ? <span className="block text-[11px] text-ink-faint">{f.uncertainty}</span> : null}
                     </Td>
                     <Td numeric className="whitespace-nowrap">
-                      {drift.main}
+                      {r ? (
+                        <Link href={`/runs/${r.id}`} className="hover:text-copper hover:underline">
+                          {drift.main}
+                        </Link>
+                      ) : (
+                        drift.main
+                      )}
                       {r ? <span className="block text-[11px] text-ink-faint">{drift.detail}</span> : null}
                     </Td>
                     <Td numeric className="hidden whitespace-nowrap sm:table-cell">
-                      {formatPercent(r?.thdPercent ?? null)}
+                      {r ? (
+                        <Link href={`/runs/${r.id}`} className="hover:text-copper hover:underline">
+                          {formatPercent(r.thdPercent)}
+                        </Link>
+                      ) : (
+                        DASH
+                      )}
                       {r && r.worstHarmonicDbc !== null ? <span className="block text-[11px] text-ink-faint">worst {formatDecibels(r.worstHarmonicDbc, "dBc")}</span> : null}
                     </Td>
                     <Td numeric className="hidden whitespace-nowrap text-[12px] lg:table-cell">

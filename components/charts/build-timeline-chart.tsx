@@ -22,6 +22,7 @@ function runAxis(): uPlot.Axis {
   return themedAxis({
     label: "Run (upload order)",
     incrs: [1, 2, 5, 10, 20, 50, 100, 200, 500],
+    space: 22,
     values: (_u, splits) => splits.map((v) => (Number.isInteger(v) ? `#${v}` : "")),
   });
 }

@@ -84,11 +84,19 @@ export function AttentionList({ builds, total }: { builds: AttentionBuild[]; tot
                   </div>
                   <div>
                     <dt className="font-sans text-[11px] text-ink-faint">Drift</dt>
-                    <dd>{large ? drift.percent : drift.ppm}</dd>
+                    <dd>
+                      <Link href={`/runs/${r.id}`} className="text-ink hover:text-copper hover:underline">
+                        {large ? drift.percent : drift.ppm}
+                      </Link>
+                    </dd>
                   </div>
                   <div>
                     <dt className="font-sans text-[11px] text-ink-faint">THD</dt>
-                    <dd>{formatPercent(r.thdPercent)}</dd>
+                    <dd>
+                      <Link href={`/runs/${r.id}`} className="text-ink hover:text-copper hover:underline">
+                        {formatPercent(r.thdPercent)}
+                      </Link>
+                    </dd>
                   </div>
                 </dl>
               ) : null}

@@ -53,10 +53,14 @@ export function LatestRunsTable({ runs, emptyHint }: { runs: DashboardRun[]; emp
                 {f.uncertainty ? <span className="block text-[11px] text-ink-faint">{f.uncertainty}</span> : null}
               </Td>
               <Td numeric className="hidden whitespace-nowrap sm:table-cell">
-                {large ? drift.percent : drift.ppm}
+                <Link href={`/runs/${r.id}`} className="hover:text-copper hover:underline">
+                  {large ? drift.percent : drift.ppm}
+                </Link>
               </Td>
               <Td numeric className="hidden whitespace-nowrap md:table-cell">
-                {formatPercent(r.thdPercent)}
+                <Link href={`/runs/${r.id}`} className="hover:text-copper hover:underline">
+                  {formatPercent(r.thdPercent)}
+                </Link>
               </Td>
               <Td>
                 <VerdictBadge verdict={runBadge(r)} className="whitespace-nowrap" />

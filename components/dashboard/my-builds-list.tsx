@@ -46,10 +46,22 @@ export function MyBuildsList({ builds }: { builds: BuildTableRow[] }) {
                 )}
               </Td>
               <Td numeric className="hidden whitespace-nowrap sm:table-cell">
-                {large ? drift.percent : drift.ppm}
+                {r ? (
+                  <Link href={`/runs/${r.id}`} className="hover:text-copper hover:underline">
+                    {large ? drift.percent : drift.ppm}
+                  </Link>
+                ) : (
+                  DASH
+                )}
               </Td>
               <Td numeric className="hidden whitespace-nowrap sm:table-cell">
-                {formatPercent(r?.thdPercent ?? null)}
+                {r ? (
+                  <Link href={`/runs/${r.id}`} className="hover:text-copper hover:underline">
+                    {formatPercent(r.thdPercent)}
+                  </Link>
+                ) : (
+                  DASH
+                )}
               </Td>
             </Tr>
           );
