@@ -135,8 +135,12 @@ export default async function BuildReportPage({ params }: Props) {
       <Section n={4} title="Drift over tweaks" description="Measured against predicted at each analysed run, with the bands, the spec and the tweaks (T).">
         {measured ? (
           <div className="space-y-5">
-            <BuildTimelineChart series={data.series} height={280} />
-            <HarmonicsTrendChart series={data.series} height={200} />
+            <div className="print:break-inside-avoid">
+              <BuildTimelineChart series={data.series} height={280} />
+            </div>
+            <div className="print:break-inside-avoid">
+              <HarmonicsTrendChart series={data.series} height={200} />
+            </div>
           </div>
         ) : (
           <p className="text-sm text-ink-soft">No analysed run with a measured frequency yet.</p>
