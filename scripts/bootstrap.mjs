@@ -31,15 +31,18 @@ function fail(line) {
   shutdown(1);
 }
 
+/** A set-up step that cannot go on: main() stops at once and everything started so far is stopped. */
+class SetupError extends Error {}
+
 function run(cmd, args, opts = {}) {
   const r = spawnSync(cmd, args, { cwd: root, stdio: "inherit", ...opts });
-  if (r.status !== 0) fail(`${cmd} ${args.join(" ")} failed with exit ${r.status}`);
+  if (r.status !== 0) throw new SetupError(`${cmd} ${args.join(" ")} failed with exit ${r.status}`);
 }
 
 const isRoot = process.getuid?.() === 0;
 
 function aptInstall(packages) {
-  if (!isRoot) fail(`missing Debian packages (${packages.join(", ")}); install them with: sudo apt-get install -y ${packages.join(" ")}`);
+  if (!isRoot) throw new SetupError(`missing Debian packages (${packages.join(", ")}); install them with: sudo apt-get install -y ${packages.join(" ")}`);
   log(`installing Debian packages: ${packages.join(", ")}`);
   run("apt-get", ["update", "-qq"]);
   run("apt-get", ["install", "-y", "-qq", "--no-install-recommends", ...packages], {
@@ -93,11 +96,11 @@ function portOpen(port) {
 async function waitForPort(port, name, child, timeoutMs = 60_000) {
   const until = Date.now() + timeoutMs;
   while (Date.now() < until) {
-    if (child && child.exitCode !== null) fail(`${name} exited early with code ${child.exitCode}`);
+    if (child && child.exitCode !== null) throw new SetupError(`${name} exited early with code ${child.exitCode}`);
     if (await portOpen(port)) return;
     await new Promise((r) => setTimeout(r, 150));
   }
-  fail(`${name} did not listen on 127.0.0.1:${port} within ${timeoutMs / 1000} s`);
+  throw new SetupError(`${name} did not listen on 127.0.0.1:${port} within ${timeoutMs / 1000} s`);
 }
 
 function spawnChild(name, args, env, { quiet = false } = {}) {
@@ -156,7 +159,7 @@ async function main() {
     [stack.smtpApiPort, "fake SMTP API"],
     [stack.appPort, "web app"],
   ]) {
-    if (await portOpen(port)) fail(`port ${port} (${what}) is already in use: is another Tankbook still running?`);
+    if (await portOpen(port)) throw new SetupError(`port ${port} (${what}) is already in use: is another Tankbook still running?`);
   }
 
   if (pgLib.ensureCluster(pgBin, dataDir)) log(`created a PostgreSQL cluster in ${dataDir}`);
