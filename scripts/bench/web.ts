@@ -4,6 +4,7 @@
 // measures four routes side by side with autocannon on loopback, then 20 concurrent 1M-sample uploads, prints the
 // figures and stops everything it started. Bounded: about a minute of load plus the uploads' analysis.
 import { appUrl } from "./web/config";
+import os from "node:os";
 import { parseArgs } from "node:util";
 import { closeDb, db } from "../../db/index";
 import { SESSION_COOKIE_NAME } from "../../lib/auth/lucia";
@@ -109,6 +110,7 @@ async function main(): Promise<number> {
       figures.push(await measureRoute(route, load));
     }
     process.stdout.write(`\n${loadTable(figures)}\n\n`);
+    log(`load average after the routes: ${os.loadavg().map((l) => l.toFixed(1)).join(" / ")}`);
     const targets = targetLines(figures);
     process.stdout.write(`${targets.lines.join("\n")}\n\n`);
 

@@ -13,7 +13,9 @@ function pad(text: string, width: number, right = false): string {
 
 export function machineLine(options: LoadOptions): string {
   const cpu = os.cpus()[0]?.model.trim() ?? "unknown CPU";
-  return `machine: ${os.availableParallelism()} cores (${cpu}), Node ${process.version}; ${options.connections} connections, ${options.warmupS} s warm-up + ${options.durationS} s per route, loopback`;
+  // The load average tells whether other work shared the cores while the figures were taken.
+  const load = os.loadavg().map((l) => l.toFixed(1)).join(" / ");
+  return `machine: ${os.availableParallelism()} cores (${cpu}), Node ${process.version}, load average ${load}; ${options.connections} connections, ${options.warmupS} s warm-up + ${options.durationS} s per route, loopback`;
 }
 
 /** The side-by-side table; the first row is the floor the others are compared with. */
