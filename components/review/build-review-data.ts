@@ -4,7 +4,7 @@ import { getBuildTableRow, type BuildTableRow } from "@/db/queries/dashboard";
 import { listBuildFlags, type Flag } from "@/db/queries/flags";
 import { getFollowStatus, isFollowingProject, type FollowStatus } from "@/db/queries/follows";
 import type { ReviewBasis } from "@/db/queries/reviews";
-import { getRun, listRuns, type Run } from "@/db/queries/runs";
+import { listRunsWithSnapshot, type RunSnapshot } from "@/db/queries/runs";
 import { listTweaks, type Tweak } from "@/db/queries/tweaks";
 import { tweakLabel } from "@/components/logbook/tweak-label";
 import type { CurrentUser } from "@/lib/auth/current-user-type";
@@ -60,7 +60,7 @@ export interface BuildReviewData {
   tweaks: Tweak[];
 }
 
-function designOfSnapshot(run: Run): OscillatorDesign {
+function designOfSnapshot(run: { snapshot: RunSnapshot }): OscillatorDesign {
   const s = run.snapshot;
   return {
     topology: s.topology,
@@ -84,7 +84,7 @@ export async function loadBuildReview(
   options: { series?: ESeriesName } = {},
 ): Promise<BuildReviewData> {
   const [page, tweaks, flags, follow, followsProject, signOff, row] = await Promise.all([
-    listRuns(build.id, { status: "done", limit: TIMELINE_RUN_LIMIT }),
+    listRunsWithSnapshot(build.id, { status: "done", limit: TIMELINE_RUN_LIMIT }),
     listTweaks(build.id),
     listBuildFlags(build.id),
     getFollowStatus(user.id, build.id),
@@ -92,8 +92,7 @@ export async function loadBuildReview(
     getSignOff(build.id),
     getBuildTableRow(build.id),
   ]);
-  // The list rows carry no snapshot; the bands and spec of each run live there.
-  const runs = (await Promise.all(page.items.map((r) => getRun(r.id)))).filter((r): r is Run => r !== null);
+  const runs = page.items;
 
   let retune: BuildRetune | null = null;
   let retuneError: string | null = null;

@@ -240,18 +240,32 @@ export interface RunFilter extends PageRequest {
 }
 
 /** A build's runs, newest first. */
-export async function listRuns(buildId: string, filter: RunFilter = {}, trx: Knex | Knex.Transaction = db()): Promise<Page<RunSummary>> {
+function buildRunsQuery(trx: Knex | Knex.Transaction, buildId: string, filter: RunFilter, extraColumns: string[]) {
   const query = trx("runs as r")
     .join("auth_user as u", "u.id", "r.created_by")
-    .select(...summaryColumns, "u.name as created_by_name", cursorColumn(trx as Knex, "r"))
+    .select(...summaryColumns, ...extraColumns, "u.name as created_by_name", cursorColumn(trx as Knex, "r"))
     .where("r.build_id", buildId);
   if (filter.verdict === "none") query.whereNull("r.verdict");
   else if (filter.verdict) query.where("r.verdict", filter.verdict);
   if (filter.status) query.where("r.status", filter.status);
   if (filter.from) query.where("r.created_at", ">=", filter.from);
   if (filter.to) query.where("r.created_at", "<", filter.to);
-  const rows = await paginate(query, "r", filter);
+  return paginate(query, "r", filter);
+}
+
+export async function listRuns(buildId: string, filter: RunFilter = {}, trx: Knex | Knex.Transaction = db()): Promise<Page<RunSummary>> {
+  const rows = await buildRunsQuery(trx, buildId, filter, []);
   return toPage(rows as (RunRow & { cursor_ts: string })[], filter, toSummary);
+}
+
+/** {@link listRuns} with each run's snapshot (the prediction, bands and spec it was judged against), in one query. */
+export async function listRunsWithSnapshot(
+  buildId: string,
+  filter: RunFilter = {},
+  trx: Knex | Knex.Transaction = db(),
+): Promise<Page<RunSummary & { snapshot: RunSnapshot }>> {
+  const rows = await buildRunsQuery(trx, buildId, filter, ["r.snapshot"]);
+  return toPage(rows as (RunRow & { cursor_ts: string })[], filter, (row) => ({ ...toSummary(row), snapshot: row.snapshot }));
 }
 
 export interface CreateRunInput {
