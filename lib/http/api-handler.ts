@@ -28,14 +28,23 @@ async function limitWrites(request: Request, user: CurrentUser | null): Promise<
 const DRAIN_LIMIT_BYTES = 1024 * 1024;
 
 /**
- * A refusal made before the body was read (401, 403, 415, 429…) still reads a small body to its end and drops
- * it: otherwise the connection is reset under a client that is still sending, and it never sees the answer.
+ * A refusal made before the body was read (401, 403, 415, 429…) first reads a small body to its end and drops
+ * it: answering earlier lets the framework drop the unread body, which resets the connection under a client
+ * that is still sending, and it never sees the answer.
  */
-function discardUnreadBody(request: Request): void {
+async function discardUnreadBody(request: Request): Promise<void> {
   if (!request.body || request.bodyUsed) return;
   const length = Number(request.headers.get("content-length") ?? Number.NaN);
   if (!(length <= DRAIN_LIMIT_BYTES)) return;
-  void request.body.pipeTo(new WritableStream()).catch(() => undefined);
+  // Bounded in time as well, so a client that stops sending cannot hold its answer back for long.
+  let timer: NodeJS.Timeout | undefined;
+  await Promise.race([
+    request.body.pipeTo(new WritableStream()).catch(() => undefined),
+    new Promise<void>((resolve) => {
+      timer = setTimeout(resolve, 2_000);
+    }),
+  ]);
+  clearTimeout(timer);
 }
 
 /** The second argument Next passes a route handler; `params` is a promise in Next 15+. */
@@ -77,7 +86,7 @@ export function apiHandler<P>(
       if (!response.headers.has("cache-control")) response.headers.set("cache-control", "no-store");
       return response;
     } catch (err) {
-      discardUnreadBody(request);
+      await discardUnreadBody(request);
       return problemFromError(err);
     }
   };

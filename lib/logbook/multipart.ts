@@ -32,6 +32,26 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
   const fields: Record<string, string> = {};
   let fileSeen = false;
   const malformed = (err: unknown) => new BadRequestError(`The multipart body cannot be read: ${err instanceof Error ? err.message : String(err)}.`);
+  const body = Readable.fromWeb(request.body as unknown as NodeWebReadableStream);
+  body.on("error", (err) => parser.destroy(err));
+  // After a parse error the rest of the body is read and dropped (for up to 2 s) before the error is reported,
+  // so the 400 goes out once the client has finished sending instead of resetting it mid-write.
+  const drained = new Promise<void>((resolve) => {
+    parser.on("error", () => {
+      body.unpipe(parser);
+      if (body.readableEnded || body.destroyed) return resolve();
+      const timer = setTimeout(resolve, 2_000);
+      const finish = () => {
+        clearTimeout(timer);
+        resolve();
+      };
+      body.once("end", finish);
+      body.once("close", finish);
+      body.once("error", finish);
+      body.resume();
+    });
+  });
+  const failAfterDrain = (reject: (err: unknown) => void) => (err: unknown) => void drained.then(() => reject(malformed(err)));
 
   const file = new Promise<{ stream: Readable; filename: string; mimeType: string }>((resolve, reject) => {
     parser.on("file", (name, stream, info) => {
@@ -51,7 +71,7 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
     parser.on("close", () => {
       if (!fileSeen) reject(new BadRequestError(`No file in the field “${fileField}”.`, { [fileField]: ["missing"] }));
     });
-    parser.on("error", (err) => reject(malformed(err)));
+    parser.on("error", failAfterDrain(reject));
   });
   const done = new Promise<Record<string, string>>((resolve, reject) => {
     let nulField: string | null = null;
@@ -64,18 +84,29 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
       if (nulField === null) resolve(fields);
       else reject(new BadRequestError(`Text cannot contain the NUL character (U+0000); the field “${nulField}” has one.`, { [nulField]: ["contains U+0000"] }));
     });
-    parser.on("error", (err) => reject(malformed(err)));
+    parser.on("error", failAfterDrain(reject));
   });
   // Either promise may go unawaited when the other fails first; their rejections are handled by the caller's.
   file.catch(() => undefined);
   done.catch(() => undefined);
-  const body = Readable.fromWeb(request.body as unknown as NodeWebReadableStream);
-  body.on("error", (err) => parser.destroy(err));
-  // After a parse error the rest of the body is read and dropped, so the client still sees the 400.
-  parser.on("error", () => {
-    body.unpipe(parser);
-    body.resume();
-  });
   body.pipe(parser);
   return { file, fields: done };
+}
+
+/**
+ * Waits (at most `limitMs`) until the whole request body has been read, so a refusal made while the file was
+ * still arriving is answered after the client finished sending, not by resetting its connection.
+ */
+export async function bodyRead(parts: MultipartCapture, limitMs = 2_000): Promise<void> {
+  let timer: NodeJS.Timeout | undefined;
+  await Promise.race([
+    parts.fields.then(
+      () => undefined,
+      () => undefined,
+    ),
+    new Promise<void>((resolve) => {
+      timer = setTimeout(resolve, limitMs);
+    }),
+  ]);
+  clearTimeout(timer);
 }

@@ -3,7 +3,7 @@ import { problem } from "@/lib/http/problem";
 import { runSummaryJson } from "@/lib/logbook/api-json";
 import { checkCaptureSize, uploadLimitBytes } from "@/lib/logbook/capture-files";
 import { queryObject } from "@/lib/logbook/http";
-import { readMultipartCapture } from "@/lib/logbook/multipart";
+import { bodyRead, readMultipartCapture } from "@/lib/logbook/multipart";
 import { listBuildRuns, uploadRunFromStream } from "@/lib/logbook/runs";
 import { idempotencyKeySchema, runListQuerySchema, runMetadataSchema } from "@/lib/validations/run";
 
@@ -38,7 +38,10 @@ export const POST = apiHandler<Params>({ action: "run:upload" }, async (request,
   const outcome = await uploadRunFromStream(
     { user },
     { buildId, filename: file.filename, contentType: file.mimeType, stream: file.stream, meta, idempotencyKey },
-  );
+  ).catch(async (err: unknown) => {
+    await bodyRead(parts);
+    throw err;
+  });
   if (outcome.kind === "duplicate") {
     const existing = outcome.existing;
     return problem(
