@@ -1,3 +1,4 @@
+import { getBuild } from "@/db/queries/builds";
 import { getFollowStatus } from "@/db/queries/follows";
 import { clientIp } from "@/lib/auth/client-ip";
 import { NotFoundError } from "@/lib/errors";
@@ -12,7 +13,7 @@ type Params = { buildId: string };
 /** Whether you follow the build: `{following, via: "build"|"project"|"maker"|null, followsProject, isMaker}`. */
 export const GET = apiHandler<Params>({ action: "read" }, async (_request, context, user) => {
   const { buildId } = await context.params;
-  if (!isId(buildId)) throw new NotFoundError("The build");
+  if (!isId(buildId) || !(await getBuild(buildId))) throw new NotFoundError("The build");
   return Response.json(await getFollowStatus(user.id, buildId));
 });
 
