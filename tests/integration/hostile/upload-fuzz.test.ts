@@ -1,3 +1,4 @@
+import { Agent } from "node:http";
 import fc from "fast-check";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -26,6 +27,8 @@ import {
 // (the upload form says so: "the analysis will say exactly what it cannot read"); such runs must end `failed`
 // with a message, never stuck and never a 5xx.
 
+/** One connection per request: a refused upload must be answered on its own connection, not on a reused one. */
+const freshConnections = new Agent({ keepAlive: false });
 let fx: Fixture;
 /** Uploaders used in turn, so the per-user write limit (600 a minute) is never what answers. */
 let uploaders: ApiPerson[];
@@ -51,7 +54,7 @@ function nextUploader(): ApiPerson {
 }
 
 async function post(body: Buffer, contentType: string | null, extraHeaders: Record<string, string> = {}): Promise<Answer> {
-  const req = request(appUrl()).post(`/api/v1/builds/${fx.buildId}/runs`).set("authorization", `Bearer ${nextUploader().token}`).redirects(0);
+  const req = request(appUrl()).post(`/api/v1/builds/${fx.buildId}/runs`).agent(freshConnections).set("authorization", `Bearer ${nextUploader().token}`).redirects(0);
   if (contentType !== null) req.set("content-type", contentType);
   for (const [k, v] of Object.entries(extraHeaders)) req.set(k, v);
   return answerOf(await req.send(body));
