@@ -170,6 +170,10 @@ export class CaptureImporter {
     } else {
       sampleRateHz = 1 / (this.preambleIntervalS as number);
     }
+    // The row parser checks the first step; a span from near -MAX_VALUE to near +MAX_VALUE can still overflow.
+    if (!(sampleRateHz > 0 && sampleRateHz < Infinity)) {
+      throw new CaptureImportError(`the time column gives a sample rate of ${sampleRateHz} Hz; it must be a positive finite number`);
+    }
     const voltageColumns = this.columns.filter((column) => column.kind === "voltage");
     const channels = voltageColumns.map((column, k) => {
       const stored = rows.channels[k];
@@ -337,7 +341,16 @@ export class CaptureImporter {
           "no time column (a header named 'time' or 't') and no sample interval or sample rate in the preamble",
         );
       }
-      this.preambleIntervalS = timing.sampleIntervalS;
+      const intervalS = timing.sampleIntervalS;
+      const rateHz = 1 / intervalS;
+      if (!(rateHz > 0 && rateHz < Infinity)) {
+        const line = lines.slice(0, headerIndex).find((l) => splitCells(l.text, guessDelimiter(l.text))[0] === timing.key);
+        throw new CaptureImportError(
+          `'${timing.key}' gives a sample interval of ${intervalS} s, too ${rateHz > 0 ? "small to give a finite" : "large to give a non-zero"} sample rate`,
+          line?.lineNumber,
+        );
+      }
+      this.preambleIntervalS = intervalS;
     }
     const dataStart = header.end;
     let capacity = 1 << 16;

@@ -45,6 +45,8 @@ export class RowParser {
   private readonly delimiter: number;
   private readonly decimalComma: boolean;
   private readonly hasTime: boolean;
+  /** Factor from the time column's number to seconds (1 without a time column). */
+  private readonly timeScale: number;
   private capacity: number;
   /** One growing array per stored channel, in channel order. */
   channels: Float64Array[];
@@ -74,6 +76,7 @@ export class RowParser {
     this.delimiter = delimiter.charCodeAt(0);
     this.decimalComma = decimalComma && delimiter !== ",";
     this.hasTime = roles.includes(ROLE_TIME);
+    this.timeScale = this.hasTime ? scales[roles.indexOf(ROLE_TIME)] : 1;
     this.lineNumber = headerLineNumber;
     this.capacity = Math.max(64, Math.ceil(initialCapacity));
     const channelCount = roles.reduce((n, role) => (role >= 0 ? n + 1 : n), 0);
@@ -280,6 +283,16 @@ export class RowParser {
           }
           if (count === 1) {
             this.firstSpacing = spacing;
+            // A subnormal step (1e-310 s) is a positive double whose reciprocal overflows to Infinity, and a
+            // step near the largest double has a reciprocal of 0: neither is a sample rate the engine can use.
+            const intervalS = spacing * this.timeScale;
+            const rateHz = 1 / intervalS;
+            if (!(rateHz > 0 && rateHz < Infinity)) {
+              throw new CaptureImportError(
+                `sample interval ${intervalS} s is too ${rateHz > 0 ? "small to give a finite" : "large to give a non-zero"} sample rate`,
+                line,
+              );
+            }
           } else if (Math.abs(spacing - this.firstSpacing) > maxSpacingError * this.firstSpacing) {
             throw new CaptureImportError(
               `sample spacing ${spacing} differs from the first spacing ${this.firstSpacing} by more than 1%; ` +

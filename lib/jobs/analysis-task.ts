@@ -39,11 +39,22 @@ function inEngine<T>(work: () => T): T {
   }
 }
 
-export default async function analyseCaptureObject(input: AnalysisTaskInput): Promise<AnalysisTaskOutput> {
-  const stream = await getObjectStream(input.objectKey);
+/**
+ * Imports and analyses a capture given as chunks, turning anything the importer or the engine throws into
+ * { ok: false, message }; only a failure of the chunks' source (storage) is thrown.
+ *
+ * @param chunks - the capture file's bytes, in order
+ * @param input - the size hint, channel and probe attenuation of the run (its object key is not read)
+ * @returns the result and plot, or the message the run is failed with
+ * @throws whatever reading `chunks` throws
+ */
+export async function analyseCaptureChunks(
+  chunks: AsyncIterable<Uint8Array> | Iterable<Uint8Array>,
+  input: Omit<AnalysisTaskInput, "objectKey">,
+): Promise<AnalysisTaskOutput> {
   try {
     const importer = new CaptureImporter({ sizeHintBytes: input.sizeBytes });
-    for await (const chunk of stream) inEngine(() => importer.push(chunk as Uint8Array));
+    for await (const chunk of chunks) inEngine(() => importer.push(chunk));
     return inEngine(() => {
       const capture = applyProbeAttenuation(importer.finish(), input.probeAttenuation);
       const { result, plot } = analyzeCapture(capture, input.channel ? { channel: input.channel } : {});
@@ -52,6 +63,13 @@ export default async function analyseCaptureObject(input: AnalysisTaskInput): Pr
   } catch (err) {
     if (err instanceof EngineFailure) return { ok: false, engineVersion: ENGINE_VERSION, message: err.message };
     throw err;
+  }
+}
+
+export default async function analyseCaptureObject(input: AnalysisTaskInput): Promise<AnalysisTaskOutput> {
+  const stream = await getObjectStream(input.objectKey);
+  try {
+    return await analyseCaptureChunks(stream as AsyncIterable<Uint8Array>, input);
   } finally {
     stream.destroy();
   }

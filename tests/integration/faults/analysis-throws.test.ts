@@ -13,10 +13,12 @@ import { runMetadataSchema } from "@/lib/validations/run";
 import { synthCaptureCsv } from "../../../scripts/lib/synth-capture";
 import { scratchUser, useScratchStack, waitFor, type ScratchStack } from "../logbook/scratch-stack";
 
-// A capture the importer takes but the analysis throws on (not a CSV import error): a time column stepping by
-// 1e-310 s, a subnormal double, so its sample rate overflows to Infinity inside the engine. The run must end
-// failed with the engine's message, without retries (a pure computation throws the same again), and the runs
-// queued beside it must be analysed as usual.
+// Two runs that cannot be analysed, queued between good ones, on one thread. One is a capture the importer
+// refuses (a time column stepping by 1e-310 s, a subnormal double whose sample rate would overflow to Infinity);
+// the other makes the engine itself throw (not a CSV import error): its stored probe attenuation is 0.5, which
+// upload validation never writes but the engine refuses with a RangeError. Each run must end failed with its
+// message, without retries (a pure computation throws the same again), and the runs queued beside them must be
+// analysed as usual.
 let stack: ScratchStack;
 let worker: AnalysisWorker;
 let technician: CurrentUser;
@@ -68,23 +70,32 @@ afterAll(async () => {
 });
 
 describe("a capture that makes the analysis throw", () => {
-  it("ends_that_run_failed_with_the_engines_message_at_once_and_analyses_the_runs_around_it", async () => {
+  it("ends_each_bad_run_failed_with_its_message_at_once_and_analyses_the_runs_around_them", async () => {
     // Queued before the worker starts, one thread: the bad capture sits between two good ones.
     const before = await register(goodCsv(5), "before.csv");
     const bad = await register(subnormalTimeStepCsv(), "subnormal-step.csv");
+    const between = await register(goodCsv(7), "between.csv");
+    const throws = await register(goodCsv(8), "engine-throws.csv");
+    await db()("runs").where({ id: throws }).update({ probe_attenuation: 0.5 });
     const after = await register(goodCsv(6), "after.csv");
     worker = await startAnalysisWorker({ threads: 1 });
 
-    const failed = await finished(bad);
-    expect(failed.status).toBe("failed");
-    expect(failed.error).toMatch(/sample rate must be a positive number of Hz, got Infinity/);
-    expect(failed.results).toBeNull();
-    expect(failed.verdict).toBeNull();
-    // Not retried: the queue's backoff would only delay the same answer.
-    expect(failed.attempts).toBe(1);
-    expect(await db()("flags").where({ run_id: bad })).toHaveLength(0);
+    const messages: Record<string, RegExp> = {
+      [bad]: /^line 3: sample interval 1e-310 s is too small to give a finite sample rate$/,
+      [throws]: /^The analysis engine could not handle this capture \(probe attenuation must be a finite number of at least 1, got 0\.5\)/,
+    };
+    for (const [id, message] of Object.entries(messages)) {
+      const failed = await finished(id);
+      expect(failed.status).toBe("failed");
+      expect(failed.error).toMatch(message);
+      expect(failed.results).toBeNull();
+      expect(failed.verdict).toBeNull();
+      // Not retried: the queue's backoff would only delay the same answer.
+      expect(failed.attempts).toBe(1);
+      expect(await db()("flags").where({ run_id: id })).toHaveLength(0);
+    }
 
-    for (const id of [before, after]) {
+    for (const id of [before, between, after]) {
       const run = await finished(id);
       expect(run.status).toBe("done");
       expect(run.measuredHz! / 1.59e6 - 1).toBeLessThan(1e-6);

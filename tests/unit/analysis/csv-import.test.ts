@@ -133,6 +133,26 @@ describe("importCapture rejections", () => {
     expect(() => importCapture(`t,v\n${rows(100, (i) => `${i + (i % 2) * 0.004},0`)}`)).not.toThrow();
   });
 
+  it("rejects a subnormal time step, whose sample rate would overflow to Infinity", () => {
+    const error = rejection(`Time (s),Out (V)\n${rows(100, (i) => `${(i * 1e-310).toExponential(6)},${Math.sin(i / 5).toFixed(6)}`)}`);
+    expect(error.message).toBe("line 3: sample interval 1e-310 s is too small to give a finite sample rate");
+    expect(error.line).toBe(3);
+    // Scaled by the column's unit: 1e-301 ns is 1e-310 s.
+    expect(rejection(`t (ns),v\n${rows(100, (i) => `${i * 1e-301},0`)}`).message).toBe(
+      "line 3: sample interval 1e-310 s is too small to give a finite sample rate",
+    );
+  });
+
+  it("rejects a preamble clock that gives no finite positive sample rate, naming its line", () => {
+    const body = rows(100, (i) => String(Math.cos(i)));
+    expect(rejection(`Probe,1x\nSample Interval,1e-310\nCH1 (V)\n${body}`).message).toBe(
+      "line 2: 'Sample Interval' gives a sample interval of 1e-310 s, too small to give a finite sample rate",
+    );
+    expect(rejection(`Sample Rate,1e-320 Hz\nCH1 (V)\n${body}`).message).toBe(
+      "line 1: 'Sample Rate' gives a sample interval of Infinity s, too large to give a non-zero sample rate",
+    );
+  });
+
   it("rejects a file without a time column or a preamble clock", () => {
     expect(rejection(`Out (V)\n${rows(100, () => "1")}`).message).toMatch(/^no time column/);
   });
