@@ -3,7 +3,9 @@ import { type CaptureColumn, parseColumnHeader } from "./columns";
 import { CaptureImportError } from "./errors";
 import { guessDelimiter, isNumericLine, namesAColumn, splitCells } from "./header-lines";
 import { findPreambleTiming } from "./preamble";
-import { ROLE_SKIP, ROLE_TIME, RowParser } from "./row-parser";
+import { MAX_ABS_VOLTS, ROLE_SKIP, ROLE_TIME, RowParser } from "./row-parser";
+
+export { MAX_ABS_VOLTS };
 
 /** One voltage column of a capture, in volts. */
 export interface CaptureChannel {
@@ -75,8 +77,8 @@ function concatBytes(a: Uint8Array, b: Uint8Array): Uint8Array {
  * comma, semicolon or tab delimiters (decimal commas allowed unless the delimiter is a comma);
  * quoted fields; scientific notation; CRLF or LF; a UTF-8 byte-order mark; blank lines anywhere.
  * The time column is a header containing "time" or a bare "t" (units s, ms, us, µs, ns); voltage
- * columns are in V or mV (no unit means V). Without a time column the preamble must give the
- * sample interval or sample rate.
+ * columns are in V or mV (no unit means V), each value within ±{@link MAX_ABS_VOLTS}. Without a
+ * time column the preamble must give the sample interval or sample rate.
  *
  * @example
  * const importer = new CaptureImporter({ sizeHintBytes: stat.size });

@@ -28,7 +28,7 @@ export type {
   Spur,
   TwoChannelResult,
 } from "./analyze-capture";
-export { CaptureImporter, importCapture, MIN_SAMPLES } from "./csv-import";
+export { CaptureImporter, importCapture, MAX_ABS_VOLTS, MIN_SAMPLES } from "./csv-import";
 export type { Capture, CaptureChannel, CaptureImportOptions, TimeSource } from "./csv-import";
 export type { CaptureColumn, ColumnKind } from "./columns";
 export { CaptureImportError } from "./errors";

@@ -17,6 +17,13 @@ const POW10 = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
 const CONTROL_CHARACTER = /[\u0000-\u0008\u000b\u000e-\u001f\u007f]/;
 const NUMBER_TEXT = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 
+/**
+ * The largest voltage magnitude a capture may hold, in volts. No scope input reaches a gigavolt, and far below
+ * the ~1e150 V where the engine's power sums overflow (a sine near 1e200 V is read at a wrong frequency without
+ * any error), so a bigger value is a broken file, refused with its line and column.
+ */
+export const MAX_ABS_VOLTS = 1e9;
+
 function growTo(array: Float64Array, capacity: number): Float64Array {
   const grown = new Float64Array(capacity);
   grown.set(array);
@@ -104,6 +111,7 @@ export class RowParser {
     const pow10 = POW10;
     const maxExactMantissa = Number.MAX_SAFE_INTEGER;
     const maxSpacingError = 0.01;
+    const maxAbsVolts = MAX_ABS_VOLTS;
     const roles = this.roles;
     const scales = this.scales;
     const columnCount = roles.length;
@@ -235,8 +243,17 @@ export class RowParser {
             c = bytes[++pos];
           }
           while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++pos];
-          if (role === TIME) time = value;
-          else channels[role][count] = value * scales[column];
+          if (role === TIME) {
+            time = value;
+          } else {
+            const volts = value * scales[column];
+            // Out of bounds: let the slow path name the line and column.
+            if (!(volts <= maxAbsVolts && volts >= -maxAbsVolts)) {
+              fast = false;
+              break;
+            }
+            channels[role][count] = volts;
+          }
         }
         column++;
         if (c === delimiter) {
@@ -357,8 +374,18 @@ export class RowParser {
       }
       const value = Number(normalised);
       if (!Number.isFinite(value)) throw new CaptureImportError(`'${cell}' is out of range in column ${header}`, line);
-      if (role === ROLE_TIME) time = value;
-      else values[role] = value * this.scales[column];
+      if (role === ROLE_TIME) {
+        time = value;
+      } else {
+        const volts = value * this.scales[column];
+        if (!(Math.abs(volts) <= MAX_ABS_VOLTS)) {
+          throw new CaptureImportError(
+            `'${cell}' in column ${header} is beyond ±${MAX_ABS_VOLTS.toExponential().replace("+", "")} V, which is not a measurement a scope can make`,
+            line,
+          );
+        }
+        values[role] = volts;
+      }
     }
     return { time, values };
   }

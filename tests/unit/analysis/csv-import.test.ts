@@ -80,7 +80,8 @@ describe("importCapture", () => {
   });
 
   it("parses numbers exactly as Number() does, long mantissas and extreme exponents included", () => {
-    const values = ["0.1", "-2.5e-3", "+7", "3.", ".25", "1.2345678901234567890", "9.999999999999999e-250", "123456789012345678"];
+    // The 18-digit mantissa (above 2^53) is scaled down to stay inside the ±1e9 V a channel may hold.
+    const values = ["0.1", "-2.5e-3", "+7", "3.", ".25", "1.2345678901234567890", "9.999999999999999e-250", "123456789012345678e-10"];
     const capture = importCapture(`t,v\n${values.map((v, i) => `${i},${v}`).join("\n")}\n${rows(60, (i) => `${i + 8},0`)}\n`);
     values.forEach((v, i) => expect(capture.channels[0].samples[i]).toBe(Number(v)));
   });
@@ -151,6 +152,20 @@ describe("importCapture rejections", () => {
     expect(rejection(`Sample Rate,1e-320 Hz\nCH1 (V)\n${body}`).message).toBe(
       "line 1: 'Sample Rate' gives a sample interval of Infinity s, too large to give a non-zero sample rate",
     );
+  });
+
+  it("rejects volts beyond ±1e9 V, naming the line and the column, on the fast and the slow path", () => {
+    // A 1e200 V sine overflows the engine's power sums and reads at a wrong frequency; no scope gives that.
+    const sine = (i: number) => (1e200 * Math.sin(i / 5)).toExponential(6);
+    expect(rejection(`Time (s),Out (V)\n${rows(100, (i) => `${i * 1e-8},${i === 0 ? "0" : sine(i)}`)}`).message).toBe(
+      `line 3: '${sine(1)}' in column Out (V) is beyond ±1e9 V, which is not a measurement a scope can make`,
+    );
+    // Scaled first: 2e12 mV is 2e9 V; a quoted cell takes the slow path.
+    const error = rejection(`t,In (V),Out (mV)\n${rows(100, (i) => `${i},0,${i === 50 ? '"2e12"' : "1"}`)}`);
+    expect(error.message).toBe("line 52: '2e12' in column Out (mV) is beyond ±1e9 V, which is not a measurement a scope can make");
+    expect(error.line).toBe(52);
+    expect(rejection(`t,v\n${rows(100, (i) => `${i},${i === 7 ? "-1.0000001e9" : "1"}`)}`).message).toMatch(/^line 9: '-1.0000001e9' in column v is beyond/);
+    expect(importCapture(`t,v\n${rows(100, (i) => `${i},${i % 2 ? "1e9" : "-1e9"}`)}`).channels[0].samples[1]).toBe(1e9);
   });
 
   it("rejects a file without a time column or a preamble clock", () => {
