@@ -5,6 +5,7 @@ import type { AnalysisResult } from "@/lib/analysis";
 import { impliedExtraCapacitanceF } from "@/lib/oscillator";
 import { evaluateSpec } from "@/lib/spec/evaluate";
 import type { AnalysisTaskInput, AnalysisTaskOutput } from "./analysis-task";
+import { retryWhileDatabaseDown } from "./database-retry";
 
 /** What one job did with its run. */
 export type JobOutcome = "done" | "failed" | "skipped" | "superseded";
@@ -14,6 +15,8 @@ export interface ProcessRunOptions {
   analyse: (input: AnalysisTaskInput) => Promise<AnalysisTaskOutput>;
   /** True on the queue's last attempt: a transient failure then ends the run as failed instead of retrying. */
   lastAttempt: boolean;
+  /** Told when the final write waits for the database to come back. */
+  log?: (line: string) => void;
 }
 
 /** Frequency and stray figures of a finished analysis against the run's snapshot. */
@@ -36,10 +39,20 @@ function testDelayMs(): number {
   return Number.isFinite(ms) && ms > 0 ? ms : 0;
 }
 
+// The analysis is done when its result is written: a short database outage is waited out here (about 30 s)
+// instead of leaving the run "running" until the queue's job timeout hands it to another attempt.
+function storeFinal<T>(runId: string, options: ProcessRunOptions, write: () => Promise<T>): Promise<T> {
+  return retryWhileDatabaseDown(write, {
+    onRetry: (err, delayMs) =>
+      options.log?.(`run ${runId}: the database is not answering (${err instanceof Error ? err.message : String(err)}); retrying the result write in ${delayMs} ms`),
+  });
+}
+
 /**
  * Analyses one run: claims it (a new attempt number), runs the engine, stores results, plot and the query
  * columns, evaluates the spec of the run's snapshot and replaces its flags — or marks it failed with the
- * importer's message. The raw capture is never touched.
+ * importer's message. The raw capture is never touched. A final write that meets a lost database is retried with
+ * backoff for about 30 s before the error goes to the queue.
  *
  * @returns what happened; throws only for a transient failure that the queue should retry
  */
@@ -63,16 +76,18 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
   } catch (err) {
     const message = err instanceof Error ? err.message : String(err);
     if (!options.lastAttempt) throw err;
-    await failRun(runId, attempt, `The analysis could not finish after several attempts: ${message}. The capture is kept; re-analyse to try again.`, null);
+    await storeFinal(runId, options, () =>
+      failRun(runId, attempt, `The analysis could not finish after several attempts: ${message}. The capture is kept; re-analyse to try again.`, null),
+    );
     return "failed";
   }
 
   if (!output.ok) {
-    const stored = await db().transaction(async (trx) => {
+    const stored = await storeFinal(runId, options, () => db().transaction(async (trx) => {
       const ok = await failRun(runId, attempt, output.message, output.engineVersion, trx);
       if (ok) await replaceRunFlags(runId, run.buildId, [], trx);
       return ok;
-    });
+    }));
     return stored ? "failed" : "superseded";
   }
 
@@ -86,7 +101,7 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
     warnings: result.warnings,
   });
   const derived = derivedColumns(run, result);
-  const stored = await db().transaction(async (trx) => {
+  const stored = await storeFinal(runId, options, () => db().transaction(async (trx) => {
     const ok = await completeRun(
       runId,
       attempt,
@@ -116,6 +131,6 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
       );
     }
     return ok;
-  });
+  }));
   return stored ? "done" : "superseded";
 }

@@ -83,6 +83,7 @@ export async function startAnalysisWorker(options: WorkerOptions = {}): Promise<
         const outcome = await processRun(job.data.runId, {
           analyse: (input) => pool.run(input),
           lastAttempt: job.retryCount >= job.retryLimit,
+          log,
         });
         if (outcome === "done") await notifyFlags(job.data.runId); // never throws: a mail failure is logged, the run stays done
         log(`run ${job.data.runId}: ${outcome} in ${Date.now() - started} ms (attempt ${job.retryCount + 1})`);
