@@ -8,7 +8,7 @@ export default {
     extend: {
       colors: {
         paper: { DEFAULT: "#f6f4ef", raised: "#fffdf9", sunk: "#ece8df" },
-        ink: { DEFAULT: "#1f2327", soft: "#4a5058", faint: "#7b818a" },
+        ink: { DEFAULT: "#1f2327", soft: "#4a5058", faint: "#62676f" },
         rule: { DEFAULT: "#d9d4c8", strong: "#bdb6a6" },
         copper: { DEFAULT: "#a4501c", dark: "#7f3d14", light: "#f3e2d4" },
         verdict: {
