@@ -157,7 +157,9 @@ export function UPlotChart({ options, data, height = 260, label, readout, legend
         aria-describedby={helpId}
         onKeyDown={onKeyDown}
         onBlur={() => setIndex(null)}
-        className="tb-uplot w-full rounded-md bg-paper-raised focus-visible:outline-2"
+        // contain: inline-size keeps the canvas's pixel width out of the layout, so the box (and the observer
+        // above) can shrink when the window narrows instead of the chart pinning the page wide.
+        className="tb-uplot w-full rounded-md bg-paper-raised [contain:inline-size] focus-visible:outline-2"
         style={{ minHeight: height }}
       />
       <figcaption className="mt-2 space-y-1 text-xs text-ink-soft">
