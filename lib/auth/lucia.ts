@@ -23,14 +23,15 @@ function createLucia(pool: pg.Pool) {
       attributes: { secure: process.env.NODE_ENV !== "development", sameSite: "lax", path: "/" },
     },
     // Only these columns ever leave the adapter; password_hash never does.
-    getUserAttributes: (row) => ({ email: row.email, name: row.name, role: row.role, status: row.status }),
+    // last_seen_at comes with the row lucia already reads, so the once-a-minute "seen" write needs no extra query.
+    getUserAttributes: (row) => ({ email: row.email, name: row.name, role: row.role, status: row.status, lastSeenAt: row.last_seen_at }),
   });
 }
 
 declare module "lucia" {
   interface Register {
     Lucia: ReturnType<typeof createLucia>;
-    DatabaseUserAttributes: { email: string; name: string; role: Role; status: "active" | "disabled" };
+    DatabaseUserAttributes: { email: string; name: string; role: Role; status: "active" | "disabled"; last_seen_at: Date | null };
     DatabaseSessionAttributes: { ip: string | null; user_agent: string | null };
   }
 }
