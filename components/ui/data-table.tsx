@@ -4,7 +4,9 @@ import { cn } from "@/lib/utils";
 /** A dense table that scrolls sideways on a phone instead of squeezing its numbers. */
 export function Table({ className, children, caption }: { className?: string; children: ReactNode; caption?: string }) {
   return (
-    <div className={cn("overflow-x-auto rounded-lg border border-rule bg-paper-raised", className)}>
+    // relative: a visually hidden label in a far cell (absolutely positioned) is then clipped by this scroller
+    // instead of widening the whole page on a phone.
+    <div className={cn("relative overflow-x-auto rounded-lg border border-rule bg-paper-raised", className)}>
       <table className="w-full border-collapse text-sm">
         {caption ? <caption className="sr-only">{caption}</caption> : null}
         {children}
