@@ -52,6 +52,18 @@ function toFlag(row: FlagRow): Flag {
   };
 }
 
+/**
+ * A flag from a row that came as JSON (`row_to_json` / `json_agg` of the flag columns and acknowledged_by_name),
+ * so a query that returns a run can bring its flags in the same round trip. JSON carries times as text.
+ */
+export function flagFromJsonRow(row: Omit<FlagRow, "acknowledged_at" | "created_at"> & { acknowledged_at: string | null; created_at: string }): Flag {
+  return toFlag({ ...row, acknowledged_at: row.acknowledged_at === null ? null : new Date(row.acknowledged_at), created_at: new Date(row.created_at) });
+}
+
+/** The SQL of a run's flags as one JSON array in flag order, for a subquery on `runs as r`. */
+export const RUN_FLAGS_JSON_SQL = `(select coalesce(json_agg(x order by x.created_at, x.rule), '[]'::json)
+  from (select f.*, fu.name as acknowledged_by_name from flags f left join auth_user fu on fu.id = f.acknowledged_by where f.run_id = r.id) x)`;
+
 function flagQuery(trx: Knex | Knex.Transaction) {
   return trx("flags as f").leftJoin("auth_user as u", "u.id", "f.acknowledged_by").select("f.*", "u.name as acknowledged_by_name");
 }

@@ -46,6 +46,15 @@ function toTweak(row: TweakRow): Tweak {
   };
 }
 
+/** A tweak from a row that came as JSON (`row_to_json` of the tweak columns and created_by_name); times come as text. */
+export function tweakFromJsonRow(row: Omit<TweakRow, "created_at"> & { created_at: string }): Tweak {
+  return toTweak({ ...row, created_at: new Date(row.created_at) });
+}
+
+/** The SQL of a run's tweak as one JSON object (null without one), for a subquery on `runs as r`. */
+export const RUN_TWEAK_JSON_SQL = `(select row_to_json(x)
+  from (select t.*, tu.name as created_by_name from tweaks t join auth_user tu on tu.id = t.created_by where t.id = r.tweak_id) x)`;
+
 function tweakQuery(trx: Knex | Knex.Transaction) {
   return trx("tweaks as t").join("auth_user as u", "u.id", "t.created_by").select("t.*", "u.name as created_by_name");
 }

@@ -3,7 +3,6 @@ import type { Readable } from "node:stream";
 import { db } from "@/db/index";
 import { getBuild, getBuildForUpdate } from "@/db/queries/builds";
 import { getDesign } from "@/db/queries/designs";
-import { listRunFlags } from "@/db/queries/flags";
 import * as q from "@/db/queries/runs";
 import { getTweak } from "@/db/queries/tweaks";
 import { getIdempotentRunId, markUploadSlotCompleted, saveIdempotencyKey } from "@/db/queries/uploads";
@@ -252,9 +251,10 @@ export function runDrift(run: q.Run): DriftAnalysis | null {
  * every spec check, and the drift explained from the snapshot.
  */
 export async function getRunView(user: CurrentUser | null, runId: string) {
-  const run = await getRun(user, runId);
-  const [build, flags, tweak] = await Promise.all([getBuild(run.buildId), listRunFlags(runId), run.tweakId ? getTweak(run.tweakId) : null]);
-  if (!build) throw new NotFoundError("The build");
+  requirePermission(user, "read");
+  const found = isId(runId) ? await q.getRunWithContext(runId) : null;
+  if (!found) throw new NotFoundError("The run");
+  const { run, build, flags, tweak } = found;
   return { run, build, flags, tweak, checks: run.specChecks ?? [], drift: runDrift(run) };
 }
 
