@@ -221,7 +221,11 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
             <Card>
               <CardHeader
                 title="Spec verdict"
-                description={`Against the spec of design revision ${run.snapshot.designRevision}, as it was when the capture was logged.`}
+                description={
+                  run.snapshot.specRevision === undefined
+                    ? `Against the spec of design revision ${run.snapshot.designRevision}, as it was when the capture was logged.`
+                    : `Against the spec of design revision ${run.snapshot.specRevision}, as it was at the last re-analysis; the parts and prediction are those logged with the capture (revision ${run.snapshot.designRevision}).`
+                }
               />
               <CardBody>
                 {evaluation && evaluation.checks.length > 0 ? (

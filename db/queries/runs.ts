@@ -27,6 +27,11 @@ export interface RunSnapshot {
   worstCase: { minHz: number; maxHz: number } | null;
   statistical: { minHz: number; maxHz: number } | null;
   spec: DesignSpec;
+  /**
+   * The design revision the spec was taken from: the upload's revision at first, the design's current one after a
+   * re-analysis (which judges the run against the spec as it is then). Absent on runs never re-analysed.
+   */
+  specRevision?: number;
   /** Why there is no prediction, when there is none. */
   predictionError?: string;
 }
@@ -438,11 +443,21 @@ export async function failRun(
 }
 
 /** Puts a finished run back in the queue state, clearing its results, flags stay until the new analysis replaces them. */
-export async function resetRunForAnalysis(id: string, trx: Knex | Knex.Transaction = db()): Promise<boolean> {
+export async function resetRunForAnalysis(
+  id: string,
+  trx: Knex | Knex.Transaction = db(),
+  judgeAgainst?: { spec: DesignSpec; revision: number },
+): Promise<boolean> {
   const count = await trx("runs")
     .where({ id })
     .whereIn("status", ["done", "failed"])
     .update({
+      ...(judgeAgainst
+        ? {
+            // The as-built parts and their prediction stay as logged; only the spec the run is judged by moves on.
+            snapshot: trx.raw("snapshot || ?::jsonb", [JSON.stringify({ spec: judgeAgainst.spec, specRevision: judgeAgainst.revision })]),
+          }
+        : {}),
       status: "queued",
       error: null,
       results: null,

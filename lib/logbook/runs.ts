@@ -213,14 +213,22 @@ export async function reanalyseRun(actor: Actor, runId: string): Promise<q.Run> 
   if (!run) throw new NotFoundError("The run");
   const busy = () => new ConflictError("This run is being analysed already; its result will replace the current one.");
   if (run.status === "queued" || run.status === "running") throw busy();
+  // A re-analysis judges the run by the design's spec as it is now (an engineer may have changed it since);
+  // the as-built values and the prediction it is compared with stay as they were at upload.
+  const design = await getDesign(run.snapshot.designId);
+  const judgeAgainst = design ? { spec: design.revision.spec, revision: design.revision.revision } : undefined;
   return db().transaction(async (trx) => {
-    if (!(await q.resetRunForAnalysis(runId, trx))) throw busy();
+    if (!(await q.resetRunForAnalysis(runId, trx, judgeAgainst))) throw busy();
     await enqueueAnalysis(runId, trx);
     await audit(
       { ...actor, user },
       "run.reanalysis-requested",
       { type: "run", id: runId },
-      { previousStatus: run.status, previousEngineVersion: run.engineVersion },
+      {
+        previousStatus: run.status,
+        previousEngineVersion: run.engineVersion,
+        specRevision: judgeAgainst?.revision ?? run.snapshot.specRevision ?? run.snapshot.designRevision,
+      },
       trx,
     );
     return (await q.getRun(runId, trx))!;

@@ -57,9 +57,17 @@ export const runSnapshotSchema = documented(
     worstCase: bandSchema,
     statistical: bandSchema,
     spec: designSpecSchema,
+    specRevision: z
+      .int()
+      .optional()
+      .meta({ description: "The design revision `spec` comes from after a re-analysis, which judges the run by the spec as it is then." }),
     predictionError: z.string().optional(),
   }),
-  { refId: "RunSnapshot", description: "The build as it was when the capture was logged; the run is judged against this." },
+  {
+    refId: "RunSnapshot",
+    description:
+      "The build as it was when the capture was logged, with the prediction; the run is judged against `spec` (the upload's, or the current one at the last re-analysis).",
+  },
 );
 
 export const specCheckSchema = documented(

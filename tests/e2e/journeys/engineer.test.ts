@@ -12,8 +12,8 @@ import { appUrl } from "../../helpers/stack";
 import { checkFinalPage, freshPage, journeyPerson, scene, signIn, type JourneyPerson, type Scene } from "./helpers";
 
 // An engineer tightens a design's spec so the board's 409 kHz falls outside it, sees the next analysed capture
-// fail where the earlier one passed, re-analyses the earlier one (still judged by the spec it was logged under),
-// and accepts the build with the reason a flagged build needs.
+// fail where the earlier one passed, re-analyses the earlier one and sees its verdict change to fail against the
+// new spec, and accepts the build with the reason a flagged build needs.
 
 let browser: Browser;
 let engineer: JourneyPerson;
@@ -67,12 +67,18 @@ describe("engineer journey", () => {
     await page.locator("main").getByText(/^\W*Fail$/).first().waitFor();
     await page.getByText(/spec of design revision 2/).waitFor();
 
-    // The earlier run, re-analysed, keeps the verdict of the spec it was logged under (revision 1).
+    // The earlier run passed under revision 1; re-analysed, it is judged by revision 2 and its verdict changes.
     await page.goto(`${appUrl()}/runs/${firstRunId}`);
+    await page.getByText(/spec of design revision 1, as it was when the capture was logged/).waitFor();
     await page.getByRole("button", { name: /Re-analyse/ }).click();
+    await page.getByText(/spec of design revision 2, as it was at the last re-analysis/).waitFor({ timeout: 90_000 });
     await page.getByText("Spec verdict").waitFor({ timeout: 90_000 });
-    await page.getByText(/spec of design revision 1/).waitFor();
-    await page.locator("main").getByText(/^\W*Pass$/).first().waitFor();
+    await page.locator("main").getByText(/^\W*Fail$/).first().waitFor();
+    for (let i = 0; i < 40 && (await db()("runs").where({ id: firstRunId }).first()).verdict !== "fail"; i++) await page.waitForTimeout(250);
+    const rejudged = await db()("runs").where({ id: firstRunId }).first();
+    expect(rejudged.verdict).toBe("fail");
+    expect(rejudged.snapshot.designRevision).toBe(1); // parts and prediction stay as logged
+    expect(rejudged.snapshot.specRevision).toBe(2);
 
     // Accept the build: its latest run is flagged, so the form asks for the reason.
     await page.goto(`${appUrl()}/builds/${world.buildId}`);
