@@ -45,7 +45,7 @@ function aptInstall(packages) {
   if (!isRoot) throw new SetupError(`missing Debian packages (${packages.join(", ")}); install them with: sudo apt-get install -y ${packages.join(" ")}`);
   log(`installing Debian packages: ${packages.join(", ")}`);
   run("apt-get", ["update", "-qq"]);
-  run("apt-get", ["install", "-y", "-qq", "--no-install-recommends", ...packages], {
+  run("apt-get", ["install", "-y", "-qq", ...packages], {
     env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" },
   });
 }
