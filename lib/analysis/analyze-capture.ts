@@ -376,7 +376,7 @@ function analyzeRecord(
       ? {
           firstThirdHz: drift.firstThirdHz,
           lastThirdHz: drift.lastThirdHz,
-          ppm: ((drift.lastThirdHz - drift.firstThirdHz) / drift.firstThirdHz) * 1e6,
+          ppm: drift.ppm,
           sigmas: finiteOrNull(drift.sigmas),
         }
       : null,

@@ -153,6 +153,8 @@ export interface DriftCheck {
   lastThirdHz: number;
   firstSigmaHz: number;
   lastSigmaHz: number;
+  /** Last third minus first third, relative to the first, in ppm. */
+  ppm: number;
   /** |difference| in combined standard deviations. */
   sigmas: number;
   drifting: boolean;
@@ -184,6 +186,7 @@ export function checkDrift(y: Float64Array, sampleRateHz: number, frequencyHz: n
     lastThirdHz: last.frequencyHz,
     firstSigmaHz,
     lastSigmaHz,
+    ppm: ((last.frequencyHz - first.frequencyHz) / first.frequencyHz) * 1e6,
     sigmas,
     drifting: sigmas > DRIFT_SIGMAS && difference > 1e-9 * frequencyHz,
   };
@@ -237,10 +240,9 @@ export function buildWarnings(inputs: WarningInputs): AnalysisWarning[] {
     });
   }
   if (drift?.drifting) {
-    const ppm = ((drift.lastThirdHz - drift.firstThirdHz) / drift.firstThirdHz) * 1e6;
     warnings.push({
       code: "in-record-drift",
-      message: `The frequency moves within the record: first third ${drift.firstThirdHz.toPrecision(9)} Hz, last third ${drift.lastThirdHz.toPrecision(9)} Hz (${ppm.toPrecision(3)} ppm, ${drift.sigmas.toFixed(1)} sigma); let the oscillator warm up.`,
+      message: `The frequency moves within the record: first third ${drift.firstThirdHz.toPrecision(9)} Hz, last third ${drift.lastThirdHz.toPrecision(9)} Hz (${drift.ppm.toPrecision(3)} ppm, ${drift.sigmas.toFixed(1)} sigma); let the oscillator warm up.`,
     });
   }
   return warnings;
