@@ -5,6 +5,36 @@ export interface Crumb {
   href?: string;
 }
 
+/** How far down the logbook a page sits; a design or build step is shown only when both its id and name are given. */
+export interface TrailPlace {
+  projectId: string;
+  projectName: string;
+  designId?: string;
+  designName?: string;
+  buildId?: string;
+  buildLabel?: string;
+}
+
+/**
+ * The crumbs for a page under a project: Projects › project › design › build, each linked, then the page's own
+ * unlinked crumb.
+ * @param place the project and, if any, the design and build above the page
+ * @param here the page's own label
+ * @returns the crumbs to hand to Breadcrumbs
+ */
+export function trailCrumbs(place: TrailPlace, here: string): Crumb[] {
+  const crumbs: Crumb[] = [
+    { label: "Projects", href: "/projects" },
+    { label: place.projectName, href: `/projects/${place.projectId}` },
+  ];
+  if (place.designId && place.designName) {
+    crumbs.push({ label: place.designName, href: `/projects/${place.projectId}/designs/${place.designId}` });
+  }
+  if (place.buildId && place.buildLabel) crumbs.push({ label: place.buildLabel, href: `/builds/${place.buildId}` });
+  crumbs.push({ label: here });
+  return crumbs;
+}
+
 /** Where a page sits: project › design › build. The last crumb is the page itself and is not a link. */
 export function Breadcrumbs({ items }: { items: Crumb[] }) {
   return (

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { AutoRefresh } from "@/components/logbook/auto-refresh";
-import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { BUILD_KIND_NAMES, buildBadge } from "@/components/logbook/build-status";
 import { BuildTimeline, mergeTimeline } from "@/components/logbook/build-timeline";
 import { designOfRevision, specPhrases, TOPOLOGY_NAMES } from "@/components/logbook/design-model";
@@ -133,19 +133,16 @@ export default async function BuildPage({ params, searchParams }: Props) {
   const canTweak = can(user.role, "tweak:create");
   const canUpload = can(user.role, "run:upload");
   const base = `/builds/${buildId}`;
-  const designHref = `/projects/${build.projectId}/designs/${build.designId}`;
 
   return (
     <>
       <PageHeader
         eyebrow={
           <Breadcrumbs
-            items={[
-              { label: "Projects", href: "/projects" },
-              { label: build.projectName, href: `/projects/${build.projectId}` },
-              { label: build.designName, href: designHref },
-              { label: build.label },
-            ]}
+            items={trailCrumbs(
+              { projectId: build.projectId, projectName: build.projectName, designId: build.designId, designName: build.designName },
+              build.label,
+            )}
           />
         }
         title={

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { cache } from "react";
-import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { isRowId } from "@/components/logbook/route-ids";
 import { RunView } from "@/components/logbook/run-view";
 import type { RunContext } from "@/components/logbook/run-types";
@@ -51,13 +51,17 @@ export default async function RunPage({ params }: Params) {
       <PageHeader
         eyebrow={
           <Breadcrumbs
-            items={[
-              { label: "Projects", href: "/projects" },
-              { label: build.projectName, href: `/projects/${build.projectId}` },
-              { label: build.designName, href: `/projects/${build.projectId}/designs/${build.designId}` },
-              { label: build.label, href: `/builds/${build.id}` },
-              { label: "Run" },
-            ]}
+            items={trailCrumbs(
+              {
+                projectId: build.projectId,
+                projectName: build.projectName,
+                designId: build.designId,
+                designName: build.designName,
+                buildId: build.id,
+                buildLabel: build.label,
+              },
+              "Run",
+            )}
           />
         }
         title={<span className="break-all">{run.originalFilename}</span>}

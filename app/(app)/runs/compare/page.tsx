@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { SpectrumOverlayChart } from "@/components/charts/spectrum-overlay-chart";
-import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { isRowId } from "@/components/logbook/route-ids";
 import { runFigures } from "@/components/logbook/run-results";
 import { tweakLabel } from "@/components/logbook/tweak-label";
@@ -129,13 +129,17 @@ export default async function CompareRunsPage({ searchParams }: Props) {
       <PageHeader
         eyebrow={
           <Breadcrumbs
-            items={[
-              { label: "Projects", href: "/projects" },
-              { label: build.projectName, href: `/projects/${build.projectId}` },
-              { label: build.designName, href: `/projects/${build.projectId}/designs/${build.designId}` },
-              { label: build.label, href: `/builds/${build.id}` },
-              { label: "Compare runs" },
-            ]}
+            items={trailCrumbs(
+              {
+                projectId: build.projectId,
+                projectName: build.projectName,
+                designId: build.designId,
+                designName: build.designName,
+                buildId: build.id,
+                buildLabel: build.label,
+              },
+              "Compare runs",
+            )}
           />
         }
         title="Compare two runs"

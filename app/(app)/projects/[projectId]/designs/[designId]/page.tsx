@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { BuildForm } from "@/components/logbook/build-form";
 import { CreatePanel } from "@/components/logbook/create-panel";
 import { draftFromRevision } from "@/components/logbook/design-draft";
@@ -84,13 +84,7 @@ export default async function DesignPage({ params, searchParams }: Props) {
     <>
       <PageHeader
         eyebrow={
-          <Breadcrumbs
-            items={[
-              { label: "Projects", href: "/projects" },
-              { label: design.projectName, href: `/projects/${projectId}` },
-              { label: design.name },
-            ]}
-          />
+          <Breadcrumbs items={trailCrumbs({ projectId, projectName: design.projectName }, design.name)} />
         }
         title={design.name}
         description={`${TOPOLOGY_NAMES[design.topology]} · revision ${design.currentRevision} · updated ${formatDateTime(design.updatedAt)}`}

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { emptyDraft } from "@/components/logbook/design-draft";
 import { DesignForm } from "@/components/logbook/design-form";
 import { isRowId } from "@/components/logbook/route-ids";
@@ -25,7 +25,7 @@ export default async function NewDesignPage({ params }: Props) {
     <>
       <PageHeader
         eyebrow={
-          <Breadcrumbs items={[{ label: "Projects", href: "/projects" }, { label: project.name, href: base }, { label: "New design" }]} />
+          <Breadcrumbs items={trailCrumbs({ projectId, projectName: project.name }, "New design")} />
         }
         title="New design"
         description="Pick the topology, enter the part values with their tolerances, and set the spec. The prediction follows as you type."

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
+import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { draftFromRevision } from "@/components/logbook/design-draft";
 import { DesignForm } from "@/components/logbook/design-form";
 import { isRowId } from "@/components/logbook/route-ids";
@@ -26,12 +26,7 @@ export default async function EditDesignPage({ params }: Props) {
       <PageHeader
         eyebrow={
           <Breadcrumbs
-            items={[
-              { label: "Projects", href: "/projects" },
-              { label: design.projectName, href: `/projects/${projectId}` },
-              { label: design.name, href: base },
-              { label: "Edit" },
-            ]}
+            items={trailCrumbs({ projectId, projectName: design.projectName, designId, designName: design.name }, "Edit")}
           />
         }
         title={`Edit ${design.name}`}
