@@ -92,12 +92,14 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
   }
 
   const { result, plot } = output;
+  const thdPercent = Number.isFinite(result.thdPercent) ? result.thdPercent : null;
+  const inRecordDriftPpm = result.inRecordDrift?.ppm ?? null;
   const evaluation = evaluateSpec(run.snapshot.spec ?? {}, {
     frequencyHz: result.frequencyHz,
-    thdPercent: Number.isFinite(result.thdPercent) ? result.thdPercent : null,
+    thdPercent,
     harmonics: result.harmonics,
     fundamentalVpk: result.fundamentalVpk,
-    inRecordDriftPpm: result.inRecordDrift?.ppm ?? null,
+    inRecordDriftPpm,
     warnings: result.warnings,
   });
   const derived = derivedColumns(run, result);
@@ -114,9 +116,9 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
         driftPpm: derived.driftPpm,
         impliedExtraCapacitanceF: derived.impliedExtraCapacitanceF,
         fundamentalVpk: result.fundamentalVpk,
-        thdPercent: Number.isFinite(result.thdPercent) ? result.thdPercent : null,
+        thdPercent,
         worstHarmonicDbc: worstHarmonicDbc(result),
-        inRecordDriftPpm: result.inRecordDrift?.ppm ?? null,
+        inRecordDriftPpm,
         specChecks: evaluation.checks,
         verdict: evaluation.verdict,
       },
