@@ -181,20 +181,6 @@ export async function updateBuildAsBuilt(id: string, asBuilt: Parts, trx: Knex |
   await trx("builds").where({ id }).update({ as_built: JSON.stringify(asBuilt), updated_at: trx.fn.now() });
 }
 
-export async function updateBuildDetails(
-  id: string,
-  input: { label?: string; kind?: BuildKind; kindRevision?: string; builtBy?: string },
-  trx: Knex | Knex.Transaction = db(),
-): Promise<Build | null> {
-  const patch: Record<string, unknown> = { updated_at: trx.fn.now() };
-  if (input.label !== undefined) patch.label = input.label;
-  if (input.kind !== undefined) patch.kind = input.kind;
-  if (input.kindRevision !== undefined) patch.kind_revision = input.kindRevision;
-  if (input.builtBy !== undefined) patch.built_by = input.builtBy;
-  const count = await trx("builds").where({ id }).update(patch);
-  return count ? getBuild(id, trx) : null;
-}
-
 export async function updateBuildReview(
   id: string,
   input: { status: BuildStatus; comment: string | null; reviewedBy: string | null },
@@ -250,11 +236,6 @@ function toPhoto(row: PhotoRow): BuildPhoto {
 export async function listBuildPhotos(buildId: string, trx: Knex | Knex.Transaction = db()): Promise<BuildPhoto[]> {
   const rows: PhotoRow[] = await trx("build_photos").where({ build_id: buildId }).orderBy("created_at");
   return rows.map(toPhoto);
-}
-
-export async function getBuildPhoto(id: string, trx: Knex | Knex.Transaction = db()): Promise<BuildPhoto | null> {
-  const row: PhotoRow | undefined = await trx("build_photos").where({ id }).first();
-  return row ? toPhoto(row) : null;
 }
 
 export async function createBuildPhoto(

@@ -207,7 +207,3 @@ export async function createDesignRevision(
   await trx("designs").where({ id: designId }).update(patch);
   return getDesign(designId, trx);
 }
-
-export async function renameDesign(designId: string, name: string, trx: Knex | Knex.Transaction = db()): Promise<boolean> {
-  return (await trx("designs").where({ id: designId }).update({ name, updated_at: trx.fn.now() })) > 0;
-}

@@ -491,11 +491,3 @@ export async function failAbandonedRun(id: string, error: string, trx: Knex | Kn
 export async function listStaleUnfinishedRuns(olderThan: Date, limit = 100, trx: Knex | Knex.Transaction = db()): Promise<{ id: string; status: RunStatus }[]> {
   return trx("runs").select("id", "status").whereIn("status", ["queued", "running"]).where("updated_at", "<", olderThan).orderBy("updated_at").limit(limit);
 }
-
-/** Counts by status, for health and tests. */
-export async function countRunsByStatus(buildId: string, trx: Knex | Knex.Transaction = db()): Promise<Record<RunStatus, number>> {
-  const rows: { status: RunStatus; n: number }[] = await trx("runs").select("status").count<{ status: RunStatus; n: number }[]>({ n: "*" }).where({ build_id: buildId }).groupBy("status");
-  const out: Record<RunStatus, number> = { queued: 0, running: 0, done: 0, failed: 0 };
-  for (const r of rows) out[r.status] = Number(r.n);
-  return out;
-}

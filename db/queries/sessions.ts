@@ -26,8 +26,3 @@ export async function deleteOtherSessions(userId: string, keepSessionId: string 
   if (keepSessionId) q.whereNot({ id: keepSessionId });
   return q.delete();
 }
-
-/** Ends every session of a user. @returns how many were ended */
-export async function deleteUserSessions(userId: string): Promise<number> {
-  return db()("user_session").where({ user_id: userId }).delete();
-}

@@ -78,12 +78,6 @@ export async function getUploadSlot(id: string, trx: Knex | Knex.Transaction = d
   return row ? toSlot(row) : null;
 }
 
-/** The slot locked for update (completing it twice at once must register one run). */
-export async function getUploadSlotForUpdate(id: string, trx: Knex.Transaction): Promise<UploadSlot | null> {
-  const row: SlotRow | undefined = await trx("upload_slots").where({ id }).forUpdate().first();
-  return row ? toSlot(row) : null;
-}
-
 export async function markUploadSlotCompleted(id: string, trx: Knex | Knex.Transaction = db()): Promise<void> {
   await trx("upload_slots").where({ id }).update({ completed_at: trx.fn.now() });
 }

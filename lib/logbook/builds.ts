@@ -51,25 +51,6 @@ export async function createBuild(actor: Actor, designId: string, input: BuildIn
   );
 }
 
-/** Changes a build's label, kind or builder (technician and above). */
-export async function updateBuild(
-  actor: Actor,
-  buildId: string,
-  patch: { label?: string; kind?: q.BuildKind; kindRevision?: string; builtBy?: string },
-): Promise<q.Build> {
-  const user = requirePermission(actor.user, "build:create");
-  if (!isId(buildId)) throw new NotFoundError("The build");
-  const builtBy = patch.builtBy ? await checkBuilder(patch.builtBy, user.id) : undefined;
-  return uniqueOr(`This design already has a build labelled “${patch.label}”.`, () =>
-    db().transaction(async (trx) => {
-      const build = await q.updateBuildDetails(buildId, { ...patch, builtBy }, trx);
-      if (!build) throw new NotFoundError("The build");
-      await audit({ ...actor, user }, "build.updated", { type: "build", id: buildId }, { ...patch }, trx);
-      return build;
-    }),
-  );
-}
-
 /** @throws NotFoundError */
 export async function getBuild(user: CurrentUser | null, buildId: string): Promise<q.Build> {
   requirePermission(user, "read");

@@ -1,12 +1,10 @@
 import { db } from "@/db/index";
 import * as q from "@/db/queries/projects";
-import { listDesigns, type DesignFilter } from "@/db/queries/designs";
 import { requirePermission } from "@/lib/auth/require-permission";
 import type { CurrentUser } from "@/lib/auth/current-user-type";
 import { NotFoundError } from "@/lib/errors";
 import type { ProjectInput, ProjectPatch } from "@/lib/validations/project";
 import { audit, isId, uniqueOr, type Actor } from "./context";
-import { predictDesign } from "./prediction";
 
 /**
  * Creates a project owned by the actor (engineer and above).
@@ -50,17 +48,4 @@ export async function getProject(user: CurrentUser | null, projectId: string): P
   const project = isId(projectId) ? await q.getProject(projectId) : null;
   if (!project) throw new NotFoundError("The project");
   return project;
-}
-
-/** The project page: the project and a page of its designs, each with its current prediction. */
-export async function getProjectView(user: CurrentUser | null, projectId: string, filter: DesignFilter = {}) {
-  const project = await getProject(user, projectId);
-  const designs = await listDesigns(projectId, filter);
-  return {
-    project,
-    designs: {
-      items: designs.items.map((d) => ({ ...d, predictedHz: predictDesign(d).prediction?.predictedHz ?? null })),
-      nextCursor: designs.nextCursor,
-    },
-  };
 }

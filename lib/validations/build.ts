@@ -18,13 +18,6 @@ export const buildInputSchema = z.object({
 });
 export type BuildInput = z.infer<typeof buildInputSchema>;
 
-export const buildPatchSchema = z.object({
-  label: buildInputSchema.shape.label.optional(),
-  kind: kindField.optional(),
-  kindRevision: optionalText(40, "The revision"),
-  builtBy: optionalText(64, "The builder"),
-});
-
 export const buildListQuerySchema = pageQuerySchema.extend({
   q: optionalText(200, "The search"),
   status: z.preprocess((v) => (v === "" ? undefined : v), z.enum(BUILD_STATUSES).optional()),
