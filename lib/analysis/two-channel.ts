@@ -1,4 +1,5 @@
 import { fitHarmonics, type HarmonicFit } from "./harmonic-fit";
+import { amplitudeRatioToDb } from "./metrics";
 
 /** The second channel's fundamental relative to the first's. */
 export interface GainPhase {
@@ -45,12 +46,11 @@ export function gainPhaseAtFundamental(
  * @throws RangeError when the reference has no fundamental
  */
 export function gainPhaseFromFits(a: HarmonicFit, b: HarmonicFit): GainPhase {
-  const frequencyHz = a.omegaRadPerSample;
   const referenceVpk = a.amplitudesVpk[0];
   const otherVpk = b.amplitudesVpk[0];
-  if (!(referenceVpk > 0)) throw new RangeError(`reference channel has no fundamental at ${frequencyHz} rad/sample`);
+  if (!(referenceVpk > 0)) throw new RangeError(`reference channel has no fundamental at ${a.omegaRadPerSample} rad/sample`);
   let phaseDeg = ((b.centrePhasesRad[0] - a.centrePhasesRad[0]) * 180) / Math.PI;
   phaseDeg = ((phaseDeg % 360) + 360) % 360;
   if (phaseDeg > 180) phaseDeg -= 360;
-  return { gainDb: 20 * Math.log10(otherVpk / referenceVpk), phaseDeg, referenceVpk, otherVpk };
+  return { gainDb: amplitudeRatioToDb(otherVpk / referenceVpk), phaseDeg, referenceVpk, otherVpk };
 }
