@@ -1,6 +1,7 @@
+import { listTweaks } from "@/db/queries/tweaks";
 import { apiHandler } from "@/lib/http/api-handler";
 import { tweakJson } from "@/lib/logbook/api-json";
-import { getBuildView } from "@/lib/logbook/builds";
+import { getBuild } from "@/lib/logbook/builds";
 import { created, readJson } from "@/lib/logbook/http";
 import { logTweak } from "@/lib/logbook/tweaks";
 
@@ -11,8 +12,8 @@ type Params = { buildId: string };
 /** A build's tweaks, oldest first: `{items, nextCursor: null}` (a build's log is short). */
 export const GET = apiHandler<Params>({ action: "read" }, async (_request, context, user) => {
   const { buildId } = await context.params;
-  const view = await getBuildView(user, buildId, { limit: 1 });
-  return Response.json({ items: view.tweaks.map(tweakJson), nextCursor: null });
+  const build = await getBuild(user, buildId);
+  return Response.json({ items: (await listTweaks(build.id)).map(tweakJson), nextCursor: null });
 });
 
 /**
