@@ -9,7 +9,7 @@ import { Input, Select } from "@/components/ui/field";
 import { BUILD_KINDS } from "@/db/queries/builds";
 import { BUILD_STATES, type BuildTableRow, type BuildTableSort, type NumberedPage } from "@/db/queries/dashboard";
 import { formatDate, formatDateTime } from "@/lib/format/dates";
-import { DASH, formatDecibels, formatDrift, formatPercent, formatWithUncertainty } from "@/lib/format/numbers";
+import { DASH, formatDecibels, formatDriftLeading, formatPercent, formatWithUncertainty } from "@/lib/format/numbers";
 import { cn } from "@/lib/utils";
 import { firstDirection, sortHref, tableHref, type BuildTableQuery } from "./table-query";
 
@@ -40,13 +40,6 @@ interface Column {
   sort?: BuildTableSort;
   numeric?: boolean;
   className?: string;
-}
-
-/** A drift past 1 % reads better in percent than as a six-digit ppm figure. */
-function driftText(ppm: number | null): { main: string; detail: string } {
-  const d = formatDrift(ppm);
-  const large = typeof ppm === "number" && Math.abs(ppm) >= 10_000;
-  return large ? { main: d.percent, detail: d.ppm } : { main: d.ppm, detail: d.percent };
 }
 
 /**
@@ -196,7 +189,7 @@ export function BuildsTable({
               {page.items.map((b) => {
                 const r = b.latestRun;
                 const f = formatWithUncertainty(r?.measuredHz, r?.frequencyUncertaintyHz, "Hz", 6, 8);
-                const drift = driftText(r?.driftPpm ?? null);
+                const drift = formatDriftLeading(r?.driftPpm);
                 return (
                   <Tr key={b.id}>
                     <Td>

@@ -4,7 +4,7 @@ import { BuildStateBadge } from "@/components/review/build-state-badge";
 import { EmptyState } from "@/components/ui/empty-state";
 import type { AttentionBuild } from "@/db/queries/dashboard";
 import { formatDateTime } from "@/lib/format/dates";
-import { formatDrift, formatPercent, formatRange, formatWithUncertainty } from "@/lib/format/numbers";
+import { formatDriftLeading, formatPercent, formatRange, formatWithUncertainty } from "@/lib/format/numbers";
 
 /** Open builds whose latest run is flagged or measured outside its worst-case band, with the reasons. */
 export function AttentionList({ builds, total }: { builds: AttentionBuild[]; total: number }) {
@@ -22,8 +22,7 @@ export function AttentionList({ builds, total }: { builds: AttentionBuild[]; tot
         {builds.map((b) => {
           const r = b.latestRun;
           const f = formatWithUncertainty(r?.measuredHz, r?.frequencyUncertaintyHz, "Hz", 6, 8);
-          const drift = formatDrift(r?.driftPpm);
-          const large = typeof r?.driftPpm === "number" && Math.abs(r.driftPpm) >= 10_000;
+          const drift = formatDriftLeading(r?.driftPpm);
           return (
             <li key={b.id} className="rounded-lg border border-rule bg-paper-raised px-4 py-3">
               <div className="flex flex-wrap items-start justify-between gap-2">
@@ -86,7 +85,7 @@ export function AttentionList({ builds, total }: { builds: AttentionBuild[]; tot
                     <dt className="font-sans text-[11px] text-ink-faint">Drift</dt>
                     <dd>
                       <Link href={`/runs/${r.id}`} className="text-ink hover:text-copper hover:underline">
-                        {large ? drift.percent : drift.ppm}
+                        {drift.main}
                       </Link>
                     </dd>
                   </div>

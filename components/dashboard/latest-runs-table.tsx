@@ -5,7 +5,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import type { DashboardRun } from "@/db/queries/dashboard";
 import { formatDateTime } from "@/lib/format/dates";
-import { formatDrift, formatPercent, formatWithUncertainty } from "@/lib/format/numbers";
+import { formatDriftLeading, formatPercent, formatWithUncertainty } from "@/lib/format/numbers";
 
 /** The newest runs across every project: when, which build, what it measured and its verdict. */
 export function LatestRunsTable({ runs, emptyHint }: { runs: DashboardRun[]; emptyHint: string }) {
@@ -27,8 +27,7 @@ export function LatestRunsTable({ runs, emptyHint }: { runs: DashboardRun[]; emp
       <tbody>
         {runs.map((r) => {
           const f = formatWithUncertainty(r.measuredHz, r.frequencyUncertaintyHz, "Hz", 6, 8);
-          const drift = formatDrift(r.driftPpm);
-          const large = typeof r.driftPpm === "number" && Math.abs(r.driftPpm) >= 10_000;
+          const drift = formatDriftLeading(r.driftPpm);
           return (
             <Tr key={r.id}>
               <Td>
@@ -54,7 +53,7 @@ export function LatestRunsTable({ runs, emptyHint }: { runs: DashboardRun[]; emp
               </Td>
               <Td numeric className="hidden whitespace-nowrap sm:table-cell">
                 <Link href={`/runs/${r.id}`} className="hover:text-copper hover:underline">
-                  {large ? drift.percent : drift.ppm}
+                  {drift.main}
                 </Link>
               </Td>
               <Td numeric className="hidden whitespace-nowrap md:table-cell">

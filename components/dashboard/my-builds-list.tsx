@@ -2,7 +2,7 @@ import Link from "next/link";
 import { BuildStateBadge } from "@/components/review/build-state-badge";
 import { Table, Td, Th, Tr } from "@/components/ui/data-table";
 import type { BuildTableRow } from "@/db/queries/dashboard";
-import { DASH, formatDrift, formatPercent, formatWithUncertainty } from "@/lib/format/numbers";
+import { DASH, formatDriftLeading, formatPercent, formatWithUncertainty } from "@/lib/format/numbers";
 
 /** The builds a person made or follows, with their state and latest numbers (most recently measured first). */
 export function MyBuildsList({ builds }: { builds: BuildTableRow[] }) {
@@ -21,8 +21,7 @@ export function MyBuildsList({ builds }: { builds: BuildTableRow[] }) {
         {builds.map((b) => {
           const r = b.latestRun;
           const f = formatWithUncertainty(r?.measuredHz, r?.frequencyUncertaintyHz, "Hz", 6, 8);
-          const drift = formatDrift(r?.driftPpm);
-          const large = typeof r?.driftPpm === "number" && Math.abs(r.driftPpm) >= 10_000;
+          const drift = formatDriftLeading(r?.driftPpm);
           return (
             <Tr key={b.id}>
               <Td>
@@ -48,7 +47,7 @@ export function MyBuildsList({ builds }: { builds: BuildTableRow[] }) {
               <Td numeric className="hidden whitespace-nowrap sm:table-cell">
                 {r ? (
                   <Link href={`/runs/${r.id}`} className="hover:text-copper hover:underline">
-                    {large ? drift.percent : drift.ppm}
+                    {drift.main}
                   </Link>
                 ) : (
                   DASH

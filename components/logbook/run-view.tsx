@@ -17,7 +17,7 @@ import { formatDateTime } from "@/lib/format/dates";
 import {
   DASH,
   formatDecibels,
-  formatDrift,
+  formatDriftLeading,
   formatPartValue,
   formatPercent,
   formatPpm,
@@ -296,9 +296,7 @@ function ChartPlaceholder({ loading, error }: { loading: boolean; error: boolean
 function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFigures; drift: DriftAnalysis | null }) {
   const f = formatWithUncertainty(figures.frequencyHz, figures.frequencyUncertaintyHz, "Hz");
   const driftPpm = drift?.ppm ?? run.driftPpm;
-  const d = formatDrift(driftPpm);
-  // Past 1 % the percentage reads better than a six-digit ppm figure.
-  const large = typeof driftPpm === "number" && Math.abs(driftPpm) >= 10_000;
+  const d = formatDriftLeading(driftPpm);
   const thd = formatThd(figures.thdPercent === null ? null : figures.thdPercent / 100);
   const amplitudeDbv = figures.fundamentalVpk ? 20 * Math.log10(figures.fundamentalVpk / Math.SQRT2) : null;
   return (
@@ -306,8 +304,8 @@ function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFi
       <MetricTile label="Measured frequency" value={f.value} detail={f.uncertainty || "uncertainty not given"} className="col-span-2 lg:col-span-1" />
       <MetricTile
         label="Drift vs predicted"
-        value={large ? d.percent : d.ppm}
-        detail={large ? d.ppm : d.percent}
+        value={d.main}
+        detail={d.detail}
         note={run.snapshot.predictedHz ? `Predicted ${formatQuantity(run.snapshot.predictedHz, "Hz", 6)}` : "No prediction for these values"}
       />
       <MetricTile label="THD" value={thd.percent} detail={thd.db} note={figures.sinadDb !== null ? `SINAD ${formatDecibels(figures.sinadDb)}` : undefined} />

@@ -4,7 +4,7 @@ import { Table, Td, Th, Tr } from "@/components/ui/data-table";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import type { RunSummary } from "@/db/queries/runs";
 import { formatDateTime } from "@/lib/format/dates";
-import { formatDecibels, formatDrift, formatPercent, formatWithUncertainty } from "@/lib/format/numbers";
+import { formatDecibels, formatDriftLeading, formatPercent, formatWithUncertainty } from "@/lib/format/numbers";
 
 export interface ReportRunsTableProps {
   /** Runs oldest first, as the report reads. */
@@ -33,8 +33,7 @@ export function ReportRunsTable({ runs, tweakText, chartIndex }: ReportRunsTable
       <tbody>
         {runs.map((r) => {
           const f = formatWithUncertainty(r.measuredHz, r.frequencyUncertaintyHz, "Hz", 6, 8);
-          const drift = formatDrift(r.driftPpm);
-          const large = typeof r.driftPpm === "number" && Math.abs(r.driftPpm) >= 10_000;
+          const drift = formatDriftLeading(r.driftPpm);
           return (
             <Tr key={r.id} className="break-inside-avoid">
               <Td numeric>{chartIndex[r.id] ?? ""}</Td>
@@ -49,7 +48,7 @@ export function ReportRunsTable({ runs, tweakText, chartIndex }: ReportRunsTable
                 {f.value}
                 {f.uncertainty ? <span className="block text-[11px] text-ink-faint">{f.uncertainty}</span> : null}
               </Td>
-              <Td numeric className="whitespace-nowrap">{large ? drift.percent : drift.ppm}</Td>
+              <Td numeric className="whitespace-nowrap">{drift.main}</Td>
               <Td numeric className="whitespace-nowrap">{formatPercent(r.thdPercent)}</Td>
               <Td numeric className="hidden whitespace-nowrap sm:table-cell print:table-cell">{formatDecibels(r.worstHarmonicDbc, "dBc")}</Td>
               <Td>

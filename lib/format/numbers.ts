@@ -196,6 +196,19 @@ export function formatDrift(driftPpm: number | null | undefined): { ppm: string;
 }
 
 /**
+ * A drift with the form to show first: past 1 % the percentage reads better than a six-digit ppm figure.
+ *
+ * @param driftPpm - (measured − predicted) / predicted × 10⁶.
+ * @returns main in ppm below 10 000 ppm and in percent from there, detail in the other form;
+ *   e.g. -1520 → { main: "−1520 ppm", detail: "−0.152 %" }; dashes when missing.
+ */
+export function formatDriftLeading(driftPpm: number | null | undefined): { main: string; detail: string } {
+  const d = formatDrift(driftPpm);
+  const large = isNumber(driftPpm) && Math.abs(driftPpm) >= 10_000;
+  return large ? { main: d.percent, detail: d.ppm } : { main: d.ppm, detail: d.percent };
+}
+
+/**
  * A signed capacitance in picofarads, for implied extra (stray) capacitance.
  *
  * @param capacitanceF - farads; positive means more capacitance than the design assumed.

@@ -4,6 +4,7 @@ import {
   MINUS,
   formatDecibels,
   formatDrift,
+  formatDriftLeading,
   formatPartValue,
   formatPercent,
   formatPpm,
@@ -119,6 +120,18 @@ describe("formatDrift", () => {
   });
   it("missing_is_dashes", () => {
     expect(formatDrift(null)).toEqual({ ppm: DASH, percent: DASH });
+  });
+});
+
+describe("formatDriftLeading", () => {
+  it("below_one_percent_leads_with_ppm", () => {
+    expect(formatDriftLeading(-1520)).toEqual({ main: `${MINUS}1520 ppm`, detail: `${MINUS}0.152 %` });
+  });
+  it("from_one_percent_leads_with_percent", () => {
+    expect(formatDriftLeading(-10_000)).toEqual({ main: `${MINUS}1.00 %`, detail: `${MINUS}10000 ppm` });
+  });
+  it("missing_is_dashes", () => {
+    expect(formatDriftLeading(undefined)).toEqual({ main: DASH, detail: DASH });
   });
 });
 
