@@ -106,6 +106,11 @@ export interface SynthSamples {
 const TIME_SCALE = { s: 1, ms: 1e-3, us: 1e-6, "µs": 1e-6, ns: 1e-9 } as const;
 const DEFAULT_HARMONIC_PHASES = [0.7, 2.1, -1.3, 0.4, 2.9, -2.2, 1.6, -0.5, 1.1, -2.7, 0.2, 2.4];
 
+/** Column names of the one or two channels. */
+function channelNames(options: SynthCaptureOptions): string[] {
+  return [options.channelName ?? "Out", options.second?.name ?? "In"].slice(0, options.second ? 2 : 1);
+}
+
 function harmonicAmplitudes(options: SynthCaptureOptions): number[] {
   return (options.harmonicsDbc ?? []).map((dbc) => options.amplitudeV * 10 ** (dbc / 20));
 }
@@ -173,7 +178,7 @@ export function synthSamples(options: SynthCaptureOptions): SynthSamples {
   const channels = Array.from({ length: channelCount }, () => new Float64Array(options.samples));
   fillBlock(options, new SeededRandom(options.seed ?? 1), 0, options.samples, channels);
   const timeS = Float64Array.from({ length: options.samples }, (_, i) => i / options.sampleRateHz);
-  return { timeS, channels, names: [options.channelName ?? "Out", options.second?.name ?? "In"].slice(0, channelCount) };
+  return { timeS, channels, names: channelNames(options) };
 }
 
 /**
@@ -190,7 +195,7 @@ export function* synthCaptureChunks(options: SynthCaptureOptions, blockRows = 16
   const decimals = options.voltageDecimals ?? (voltageUnit === "mV" ? 3 : 6);
   const fix = decimalComma ? (text: string) => text.replace(".", ",") : (text: string) => text;
   const channelCount = options.second ? 2 : 1;
-  const names = [options.channelName ?? "Out", options.second?.name ?? "In"].slice(0, channelCount);
+  const names = channelNames(options);
 
   const preamble: Record<string, string> = { ...(options.preamble ?? {}) };
   if (options.omitTimeColumn) preamble["Sample Interval"] = fix(String(1 / options.sampleRateHz));
