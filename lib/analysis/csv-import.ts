@@ -214,38 +214,29 @@ export class CaptureImporter {
     return text.endsWith("\r") ? text.slice(0, -1) : text;
   }
 
+  /**
+   * Records the head line from `start` to `textEnd` (`end` just past its line feed, if any); when it is the
+   * first numeric line, decides the header and returns true.
+   */
+  private takeHeadLine(start: number, textEnd: number, end: number): boolean {
+    const line: HeadLine = { text: this.decodeHeadLine(start, textEnd), lineNumber: this.headLines.length + 1, end };
+    this.headLines.push(line);
+    this.headScanned = end;
+    if (line.text.trim() === "" || !isNumericLine(line.text)) return false;
+    this.decide(this.headLines.length - 1);
+    return true;
+  }
+
   private scanHead(final: boolean): void {
     let start = this.headScanned;
     for (;;) {
       const newline = this.head.subarray(0, this.headLength).indexOf(LF, start);
       if (newline < 0) break;
-      const line: HeadLine = {
-        text: this.decodeHeadLine(start, newline),
-        lineNumber: this.headLines.length + 1,
-        end: newline + 1,
-      };
-      this.headLines.push(line);
+      if (this.takeHeadLine(start, newline, newline + 1)) return;
       start = newline + 1;
-      this.headScanned = start;
-      if (line.text.trim() !== "" && isNumericLine(line.text)) {
-        this.decide(this.headLines.length - 1);
-        return;
-      }
     }
     if (final) {
-      if (start < this.headLength) {
-        const line: HeadLine = {
-          text: this.decodeHeadLine(start, this.headLength),
-          lineNumber: this.headLines.length + 1,
-          end: this.headLength,
-        };
-        this.headLines.push(line);
-        this.headScanned = this.headLength;
-        if (line.text.trim() !== "" && isNumericLine(line.text)) {
-          this.decide(this.headLines.length - 1);
-          return;
-        }
-      }
+      if (start < this.headLength && this.takeHeadLine(start, this.headLength, this.headLength)) return;
       this.decideWithoutNumbers();
       return;
     }
