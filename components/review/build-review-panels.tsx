@@ -22,7 +22,6 @@ import { FlagsList } from "./flags-list";
 import { FollowButton } from "./follow-button";
 import { ImpliedCapacitancePanel } from "./implied-capacitance-panel";
 import { RetuneCard } from "./retune-card";
-import { ruleName } from "./rule-name";
 import { SignOffForm } from "./sign-off-form";
 
 // The build page's issue-7 panels, each a card the page places in its grid; the report reuses the charts and lists.
@@ -197,9 +196,4 @@ export function BuildToolsBar({
       </div>
     </div>
   );
-}
-
-/** One line naming the rules the latest run broke, for page headers. */
-export function latestFlagLine(data: BuildReviewData): string | null {
-  return data.latestFlaggedRules.length > 0 ? `Latest run breaks: ${data.latestFlaggedRules.map(ruleName).join(", ")}` : null;
 }
