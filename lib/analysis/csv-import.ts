@@ -1,7 +1,7 @@
 import Papa from "papaparse";
 import { type CaptureColumn, parseColumnHeader } from "./columns";
 import { CaptureImportError } from "./errors";
-import { guessDelimiter, isNumericLine, namesAColumn, splitCells } from "./header-lines";
+import { type CaptureDelimiter, guessDelimiter, isNumericLine, namesAColumn, splitCells } from "./header-lines";
 import { findPreambleTiming } from "./preamble";
 import { MAX_ABS_VOLTS, ROLE_SKIP, ROLE_TIME, RowParser } from "./row-parser";
 
@@ -34,7 +34,7 @@ export interface Capture {
   /** Time of the first sample in seconds (0 when the clock comes from the preamble). */
   startTimeS: number;
   timeSource: TimeSource;
-  delimiter: "," | ";" | "\t";
+  delimiter: CaptureDelimiter;
   /** 1-based line of the header row. */
   headerLine: number;
 }
@@ -97,7 +97,7 @@ export class CaptureImporter {
   private carry?: Uint8Array;
   private metadata: Record<string, string> = {};
   private columns: CaptureColumn[] = [];
-  private delimiter: "," | ";" | "\t" = ",";
+  private delimiter: CaptureDelimiter = ",";
   private headerLine = 0;
   private preambleIntervalS?: number;
   private readonly sizeHintBytes?: number;
