@@ -1,5 +1,6 @@
 import type { Knex } from "knex";
-import type { RunFilter, RunStatus, Verdict } from "./runs";
+import { whereRunFilter, type RunFilter, type RunStatus, type Verdict } from "./runs";
+import { cursorColumn } from "./pagination";
 import { db } from "../index";
 
 /** One run as the export writes it: the runs table's columns plus its tweak, flags and metadata. */
@@ -107,7 +108,7 @@ function exportQuery(buildId: string, filter: RunExportFilter, trx: Knex | Knex.
     .leftJoin("tweaks as tw", "tw.id", "r.tweak_id")
     .select(
       "r.id",
-      trx.raw(`to_char(r.created_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"') as cursor_ts`),
+      cursorColumn(trx as Knex, "r"),
       "r.created_at",
       "r.original_filename",
       "r.status",
@@ -136,13 +137,7 @@ function exportQuery(buildId: string, filter: RunExportFilter, trx: Knex | Knex.
       "r.error",
     )
     .where("r.build_id", buildId);
-  // The same filters as the logbook's runs table (db/queries/runs.ts listRuns), so the file holds the rows shown.
-  if (filter.verdict === "none") q.whereNull("r.verdict");
-  else if (filter.verdict) q.where("r.verdict", filter.verdict);
-  if (filter.status) q.where("r.status", filter.status);
-  if (filter.from) q.where("r.created_at", ">=", filter.from);
-  if (filter.to) q.where("r.created_at", "<", filter.to);
-  return q.orderBy("r.created_at", "desc").orderBy("r.id", "desc");
+  return whereRunFilter(q, filter).orderBy("r.created_at", "desc").orderBy("r.id", "desc");
 }
 
 /**
