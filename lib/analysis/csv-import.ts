@@ -3,7 +3,7 @@ import { type CaptureColumn, parseColumnHeader } from "./columns";
 import { CaptureImportError } from "./errors";
 import { type CaptureDelimiter, guessDelimiter, isNumericLine, namesAColumn, splitCells } from "./header-lines";
 import { findPreambleTiming } from "./preamble";
-import { MAX_ABS_VOLTS, ROLE_SKIP, ROLE_TIME, RowParser } from "./row-parser";
+import { CONTROL_CHARACTER, MAX_ABS_VOLTS, ROLE_SKIP, ROLE_TIME, RowParser } from "./row-parser";
 
 export { MAX_ABS_VOLTS };
 
@@ -52,8 +52,6 @@ const LF = 0x0a;
 const HEAD_LIMIT_BYTES = 1 << 20;
 const HEAD_SLICE_BYTES = 1 << 14;
 const LINE_LIMIT_BYTES = 1 << 20;
-// Control bytes that never appear in a text CSV (tab, LF, FF and CR are allowed).
-const CONTROL_BYTE = /[\u0000-\u0008\u000b\u000e-\u001f\u007f]/;
 
 interface HeadLine {
   text: string;
@@ -197,7 +195,7 @@ export class CaptureImporter {
   }
 
   private appendHead(bytes: Uint8Array): void {
-    if (CONTROL_BYTE.test(this.headDecoder.decode(bytes.subarray(0, 4096), { stream: false }))) {
+    if (CONTROL_CHARACTER.test(this.headDecoder.decode(bytes.subarray(0, 4096), { stream: false }))) {
       throw new CaptureImportError("binary content: the file holds control bytes, so it is not a text CSV capture");
     }
     if (this.headLength + bytes.length > this.head.length) {

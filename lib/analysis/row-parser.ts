@@ -13,8 +13,9 @@ const DOT = 0x2e;
 // Anything else (more digits, huge exponents) goes through Number() itself.
 const POW10 = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
 
+/** Control characters that never appear in a text CSV (tab, LF, FF and CR are allowed). */
+export const CONTROL_CHARACTER = /[\u0000-\u0008\u000b\u000e-\u001f\u007f]/;
 /** Same grammar as the fast path, for rows that take the slow path. */
-const CONTROL_CHARACTER = /[\u0000-\u0008\u000b\u000e-\u001f\u007f]/;
 const NUMBER_TEXT = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 
 /**
