@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { cache } from "react";
 import { AutoRefresh } from "@/components/logbook/auto-refresh";
 import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { BUILD_KIND_NAMES, buildBadge } from "@/components/logbook/build-status";
@@ -46,9 +47,12 @@ function one(value: string | string[] | undefined): string | undefined {
 const VERDICTS = ["pass", "fail", "none"] as const;
 const STATUSES = ["queued", "running", "done", "failed"] as const;
 
+// The title and the page read the same build: one query per request, not two.
+const loadBuild = cache(getBuild);
+
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { buildId } = await params;
-  const build = isRowId(buildId) ? await getBuild(buildId) : null;
+  const build = isRowId(buildId) ? await loadBuild(buildId) : null;
   return { title: build ? `Build ${build.label}` : "Build" };
 }
 
@@ -65,7 +69,7 @@ export default async function BuildPage({ params, searchParams }: Props) {
   const seriesParam = one(search.series);
   const series: ESeriesName = E_SERIES_NAMES.find((s) => s === seriesParam) ?? "E12";
 
-  const build = await getBuild(buildId);
+  const build = await loadBuild(buildId);
   if (!build) notFound();
   const filter = { verdict, status, limit: 50 };
   let runs: Page<RunSummary>;

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { cache } from "react";
 import { Breadcrumbs } from "@/components/logbook/breadcrumbs";
 import { designOfRevision, predictedHzOf, specPhrases, TOPOLOGY_NAMES } from "@/components/logbook/design-model";
 import { PageNav } from "@/components/logbook/page-nav";
@@ -35,9 +36,12 @@ function one(value: string | string[] | undefined): string | undefined {
   return v && v.trim() !== "" ? v.trim() : undefined;
 }
 
+// The title and the page read the same project: one query per request, not two.
+const loadProject = cache(getProject);
+
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { projectId } = await params;
-  const project = isRowId(projectId) ? await getProject(projectId) : null;
+  const project = isRowId(projectId) ? await loadProject(projectId) : null;
   return { title: project?.name ?? "Project" };
 }
 
@@ -51,7 +55,7 @@ export default async function ProjectPage({ params, searchParams }: Props) {
   const topology = TOPOLOGIES.includes(topologyParam as Topology) ? (topologyParam as Topology) : undefined;
   const cursor = one(search.cursor);
 
-  const project = await getProject(projectId);
+  const project = await loadProject(projectId);
   if (!project) notFound();
   let page: Page<DesignSummary>;
   try {

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import type { ReactNode } from "react";
+import { cache, type ReactNode } from "react";
 import { BUILD_KIND_NAMES } from "@/components/logbook/build-status";
 import { designOfRevision, specPhrases, TOPOLOGY_NAMES } from "@/components/logbook/design-model";
 import { PartsTable } from "@/components/logbook/parts-table";
@@ -26,9 +26,12 @@ import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
 
 type Props = { params: Promise<{ buildId: string }> };
 
+// The title and the page read the same build: one query per request, not two.
+const loadBuild = cache(getBuild);
+
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { buildId } = await params;
-  const build = isRowId(buildId) ? await getBuild(buildId) : null;
+  const build = isRowId(buildId) ? await loadBuild(buildId) : null;
   return { title: build ? `Report — build ${build.label}` : "Build report" };
 }
 
@@ -60,7 +63,7 @@ export default async function BuildReportPage({ params }: Props) {
   const { buildId } = await params;
   const user = await requireUser(`/builds/${buildId}/report`);
   if (!isRowId(buildId)) notFound();
-  const build = await getBuild(buildId);
+  const build = await loadBuild(buildId);
   if (!build) notFound();
   const [design, builtFrom, runsPage] = await Promise.all([getDesign(build.designId), getDesignRevision(build.designRevisionId), listRuns(buildId, { limit: 200 })]);
   if (!design) notFound();

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { cache } from "react";
 import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { BuildForm } from "@/components/logbook/build-form";
 import { CreatePanel } from "@/components/logbook/create-panel";
@@ -41,9 +42,12 @@ function nextLabel(labels: string[]): string {
   return `BB-${numbers.length ? Math.max(...numbers) + 1 : labels.length + 1}`;
 }
 
+// The title and the page read the same design: one query per request, not two.
+const loadDesign = cache(getDesign);
+
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { designId } = await params;
-  const design = isRowId(designId) ? await getDesign(designId) : null;
+  const design = isRowId(designId) ? await loadDesign(designId) : null;
   return { title: design?.name ?? "Design" };
 }
 
@@ -54,7 +58,7 @@ export default async function DesignPage({ params, searchParams }: Props) {
   const search = await searchParams;
   const cursor = one(search.cursor);
 
-  const design = await getDesign(designId);
+  const design = await loadDesign(designId);
   if (!design || design.projectId !== projectId) notFound();
   let builds: Page<BuildSummary>;
   try {
