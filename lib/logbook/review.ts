@@ -18,6 +18,7 @@ import { suggestRetune, type RetuneSuggestion } from "@/lib/oscillator/retune";
 import type { ESeriesName } from "@/lib/oscillator/e-series";
 import { getLatestAnalysedRunId } from "@/db/queries/alerts";
 import { REASON_REQUIRED_MESSAGE, acceptReasonSchema } from "@/lib/validations/review";
+import { isId } from "./context";
 
 // Sign-off, flags, follows and the planned retune: the services behind the review actions and the /api/v1 routes.
 // Each one checks the caller's permission (requirePermission) and writes an audit row in the same transaction.
@@ -32,11 +33,8 @@ export interface ReviewOutcome {
   flaggedRules: string[];
 }
 
-// Ids from URLs reach SQL only when they are UUIDs; anything else is simply not found.
-const UUID_RULE = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
 function checkId(id: string, what: string): void {
-  if (!UUID_RULE.test(id)) throw new NotFoundError(what);
+  if (!isId(id)) throw new NotFoundError(what);
 }
 
 async function lockedBuild(buildId: string, trx: Knex.Transaction): Promise<Build> {
@@ -154,7 +152,7 @@ export async function reviewBuild(
 
 /** The sign-off basis of a build for its page and report (reason for a flagged acceptance, the run judged). */
 export async function getSignOff(buildId: string): Promise<ReviewBasis | null> {
-  return UUID_RULE.test(buildId) ? getReviewBasis(buildId) : null;
+  return isId(buildId) ? getReviewBasis(buildId) : null;
 }
 
 /**
@@ -237,7 +235,7 @@ export interface BuildRetune {
  * @throws RangeError from lib/oscillator when the stored design cannot be retuned
  */
 export async function getRetuneSuggestion(buildId: string, options: { series?: ESeriesName } = {}, trx: Knex | Knex.Transaction = db()): Promise<BuildRetune | null> {
-  if (!UUID_RULE.test(buildId)) return null;
+  if (!isId(buildId)) return null;
   const runId = await getLatestAnalysedRunId(buildId, trx);
   if (!runId) return null;
   const run = await getRun(runId, trx);
