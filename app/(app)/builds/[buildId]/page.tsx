@@ -23,7 +23,6 @@ import { getDesign, getDesignRevision } from "@/db/queries/designs";
 import { listBuildFlags } from "@/db/queries/flags";
 import type { Page } from "@/db/queries/pagination";
 import { listRuns, type RunSummary } from "@/db/queries/runs";
-import { listTweaks } from "@/db/queries/tweaks";
 import { requireUser } from "@/lib/auth/current-user";
 import { can } from "@/lib/auth/permissions";
 import { BadRequestError } from "@/lib/errors";
@@ -73,10 +72,9 @@ export default async function BuildPage({ params, searchParams }: Props) {
   if (!build) notFound();
   const filter = { verdict, status, limit: 50 };
   let runs: Page<RunSummary>;
-  const [design, builtFrom, tweaks, flags] = await Promise.all([
+  const [design, builtFrom, flags] = await Promise.all([
     getDesign(build.designId),
     getDesignRevision(build.designRevisionId),
-    listTweaks(buildId),
     listBuildFlags(buildId, { unacknowledgedOnly: true }),
   ]);
   try {
@@ -90,6 +88,7 @@ export default async function BuildPage({ params, searchParams }: Props) {
   const topology = design.topology;
   const rev = design.revision;
   const review = await loadBuildReview(user, build, topology, { series });
+  const tweaks = review.tweaks;
   const asBuiltModel = designOfRevision(topology, { parts: build.asBuilt, extraCapacitanceF: rev.extraCapacitanceF, windings: rev.windings });
   let report: DesignReport | null = null;
   let predictionError: string | null = null;
