@@ -20,7 +20,6 @@ import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { buttonVariants } from "@/components/ui/button";
 import { getBuild } from "@/db/queries/builds";
 import { getDesign, getDesignRevision } from "@/db/queries/designs";
-import { listBuildFlags } from "@/db/queries/flags";
 import type { Page } from "@/db/queries/pagination";
 import { listRuns, type RunSummary } from "@/db/queries/runs";
 import { requireUser } from "@/lib/auth/current-user";
@@ -72,11 +71,7 @@ export default async function BuildPage({ params, searchParams }: Props) {
   if (!build) notFound();
   const filter = { verdict, status, limit: 50 };
   let runs: Page<RunSummary>;
-  const [design, builtFrom, flags] = await Promise.all([
-    getDesign(build.designId),
-    getDesignRevision(build.designRevisionId),
-    listBuildFlags(buildId, { unacknowledgedOnly: true }),
-  ]);
+  const [design, builtFrom] = await Promise.all([getDesign(build.designId), getDesignRevision(build.designRevisionId)]);
   try {
     runs = await listRuns(buildId, { ...filter, cursor });
   } catch (err) {
@@ -89,6 +84,7 @@ export default async function BuildPage({ params, searchParams }: Props) {
   const rev = design.revision;
   const review = await loadBuildReview(user, build, topology, { series });
   const tweaks = review.tweaks;
+  const flags = review.flags.filter((f) => f.acknowledgedAt === null);
   const asBuiltModel = designOfRevision(topology, { parts: build.asBuilt, extraCapacitanceF: rev.extraCapacitanceF, windings: rev.windings });
   let report: DesignReport | null = null;
   let predictionError: string | null = null;
