@@ -69,3 +69,8 @@ export async function claimAlerts(buildId: string, runId: string, rules: string[
     .returning("rule");
   return rows.map((r) => r.rule).sort();
 }
+
+/** Takes back marks {@link claimAlerts} made for this run (no e-mail went out), so a later failing run e-mails. */
+export async function releaseAlerts(buildId: string, runId: string, rules: string[], trx: Knex | Knex.Transaction = db()): Promise<void> {
+  await trx("alert_state").where({ build_id: buildId, run_id: runId }).whereIn("rule", rules).delete();
+}

@@ -1,5 +1,5 @@
 import { db } from "@/db/index";
-import { claimAlerts, clearPassedAlerts, getLatestAnalysedRunId, lockBuildForAlerts } from "@/db/queries/alerts";
+import { claimAlerts, clearPassedAlerts, getLatestAnalysedRunId, lockBuildForAlerts, releaseAlerts } from "@/db/queries/alerts";
 import { recordAudit } from "@/db/queries/audit";
 import { getBuild } from "@/db/queries/builds";
 import { listRunFlags } from "@/db/queries/flags";
@@ -94,7 +94,7 @@ export async function notifyFlags(runId: string, options: NotifyOptions = {}): P
 
     if (result.sentTo.length === 0) {
       // Nothing went out: forget the marks this call made, so a later failing run e-mails instead of staying quiet.
-      await db()("alert_state").where({ build_id: run.buildId, run_id: runId }).whereIn("rule", decided.claimed).delete();
+      await releaseAlerts(run.buildId, runId, decided.claimed);
       result.newRules = [];
       return result;
     }
