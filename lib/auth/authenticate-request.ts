@@ -4,12 +4,19 @@ import type { CurrentUser } from "./current-user-type";
 import { lucia } from "./lucia";
 import { validateSessionId } from "./session-user";
 
+const READ_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/** Whether `method` only reads (GET, HEAD, OPTIONS): such requests change no state. */
+export function isReadMethod(method: string): boolean {
+  return READ_METHODS.has(method);
+}
+
 /**
  * Whether a cookie-authenticated request may change state: safe methods always, others only when their
  * Origin names this host (route handlers get no CSRF protection from Next, unlike form actions).
  */
 export function originAllowed(request: Request): boolean {
-  if (request.method === "GET" || request.method === "HEAD" || request.method === "OPTIONS") return true;
+  if (isReadMethod(request.method)) return true;
   const origin = request.headers.get("origin");
   const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host");
   return Boolean(origin && host && verifyRequestOrigin(origin, [host]));

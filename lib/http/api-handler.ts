@@ -1,5 +1,5 @@
 import "server-only";
-import { authenticateRequest } from "@/lib/auth/authenticate-request";
+import { authenticateRequest, isReadMethod } from "@/lib/auth/authenticate-request";
 import type { CurrentUser } from "@/lib/auth/current-user-type";
 import { requirePermission } from "@/lib/auth/require-permission";
 import type { Action } from "@/lib/auth/permissions";
@@ -8,11 +8,9 @@ import { env } from "@/lib/env";
 import { TooManyRequestsError } from "@/lib/errors";
 import { problemFromError } from "./problem";
 
-const readMethods = new Set(["GET", "HEAD", "OPTIONS"]);
-
 /** A runaway bench script must not flood the logbook: writes are limited per user and minute. */
 async function limitWrites(request: Request, user: CurrentUser | null): Promise<void> {
-  if (!user || readMethods.has(request.method)) return;
+  if (!user || isReadMethod(request.method)) return;
   const limit = env().API_WRITES_PER_MINUTE;
   const { count, windowStart } = await countApiWrite(user.id);
   if (count > limit) {
