@@ -1,6 +1,7 @@
 import type { Parts } from "@/db/queries/designs";
 import { Table, Td, Th, Tr } from "@/components/ui/data-table";
-import { TOPOLOGY_PARTS, partUnit, type Topology } from "@/lib/oscillator/design";
+import { TOPOLOGY_PARTS, type Topology } from "@/lib/oscillator/design";
+import { partUnitOrBlank } from "@/components/logbook/part-unit";
 import { DASH, formatPartValue, formatPercent } from "@/lib/format/numbers";
 
 function tempco(ppm: number | undefined, spread: number | undefined): string {
@@ -8,14 +9,6 @@ function tempco(ppm: number | undefined, spread: number | undefined): string {
   const nominal = ppm ?? 0;
   const text = `${nominal > 0 ? "+" : nominal < 0 ? "\u2212" : ""}${Math.abs(nominal)}`;
   return spread ? `${text} ± ${spread} ppm/K` : `${text} ppm/K`;
-}
-
-function unitOf(topology: Topology, ref: string): string {
-  try {
-    return partUnit(topology, ref);
-  } catch {
-    return "";
-  }
 }
 
 export interface PartsTableProps {
@@ -46,7 +39,7 @@ export function PartsTable({ topology, parts, compareWith, caption, compact = fa
       <tbody>
         {refs.map((ref) => {
           const p = parts[ref];
-          const unit = unitOf(topology, ref);
+          const unit = partUnitOrBlank(topology, ref);
           const designValue = compareWith?.[ref]?.valueSi;
           const changed = compareWith !== undefined && designValue !== undefined && designValue !== p.valueSi;
           return (

@@ -28,7 +28,8 @@ import {
   formatWithUncertainty,
 } from "@/lib/format/numbers";
 import { analyseDrift, type DriftAnalysis } from "@/lib/oscillator/drift";
-import { partUnit, type OscillatorDesign } from "@/lib/oscillator/design";
+import type { OscillatorDesign } from "@/lib/oscillator/design";
+import { partUnitOrBlank } from "@/components/logbook/part-unit";
 import { evaluateSpec } from "@/lib/spec/evaluate";
 import type { SpecEvaluation } from "@/lib/spec/types";
 import { MetricTile } from "./metric-tile";
@@ -470,7 +471,7 @@ function Metadata({ run, figures, context }: { run: RunData; figures: RunFigures
                 <div key={ref} className="contents">
                   <dt className="font-mono text-ink-soft">{ref}</dt>
                   <dd className="num text-right font-mono text-[13px] text-ink">
-                    {formatPartValue(part.valueSi, safeUnit(run, ref))}
+                    {formatPartValue(part.valueSi, partUnitOrBlank(run.snapshot.topology, ref))}
                     {part.tolerance ? <span className="text-ink-faint"> ± {formatPercent(part.tolerance * 100, 2)}</span> : null}
                   </dd>
                 </div>
@@ -504,12 +505,4 @@ function Metadata({ run, figures, context }: { run: RunData; figures: RunFigures
       </div>
     </div>
   );
-}
-
-function safeUnit(run: RunData, ref: string): string {
-  try {
-    return partUnit(run.snapshot.topology, ref);
-  } catch {
-    return "";
-  }
 }

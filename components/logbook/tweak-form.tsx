@@ -5,7 +5,8 @@ import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select, Textarea, describedBy } from "@/components/ui/field";
 import type { FormState } from "@/lib/auth/action-state";
 import type { Parts } from "@/db/queries/designs";
-import { TOPOLOGY_PARTS, partUnit, type Topology, type WindingSense } from "@/lib/oscillator/design";
+import { TOPOLOGY_PARTS, type Topology, type WindingSense } from "@/lib/oscillator/design";
+import { partUnitOrBlank } from "@/components/logbook/part-unit";
 import { predictOscillator } from "@/lib/oscillator/topologies";
 import { parseValue } from "@/lib/oscillator/units";
 import { formatPartValue, formatPpm, formatQuantity } from "@/lib/format/numbers";
@@ -37,7 +38,7 @@ export function TweakForm({ action, topology, asBuilt, extraCapacitanceF, windin
     }
   }, [state]);
   const roles = TOPOLOGY_PARTS[topology];
-  const unit = partRef ? safeUnit(topology, partRef) : "";
+  const unit = partRef ? partUnitOrBlank(topology, partRef) : "";
 
   const effect = useMemo(() => {
     if (!partRef || toValue.trim() === "") return null;
@@ -114,12 +115,4 @@ export function TweakForm({ action, topology, asBuilt, extraCapacitanceF, windin
       </Button>
     </form>
   );
-}
-
-function safeUnit(topology: Topology, ref: string): string {
-  try {
-    return partUnit(topology, ref);
-  } catch {
-    return "";
-  }
 }

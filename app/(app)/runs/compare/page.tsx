@@ -19,7 +19,8 @@ import { requireUser } from "@/lib/auth/current-user";
 import { compareRuns, type ComparableRun } from "@/lib/drift-trend/run-comparison";
 import { formatDateTime } from "@/lib/format/dates";
 import { formatPartValue } from "@/lib/format/numbers";
-import { partUnit, type Topology } from "@/lib/oscillator/design";
+import type { Topology } from "@/lib/oscillator/design";
+import { partUnitOrBlank } from "@/components/logbook/part-unit";
 
 export const metadata: Metadata = { title: "Compare runs" };
 
@@ -52,14 +53,6 @@ function comparable(run: Run): ComparableRun {
 function spectrumOf(plot: unknown): PlotData["spectrum"] | null {
   const p = plot as Partial<PlotData> | null;
   return p && p.spectrum && Array.isArray(p.spectrum.frequencyHz) && Array.isArray(p.spectrum.dBV) ? p.spectrum : null;
-}
-
-function unitOf(topology: Topology, ref: string): string {
-  try {
-    return partUnit(topology, ref);
-  } catch {
-    return "";
-  }
 }
 
 export default async function CompareRunsPage({ searchParams }: Props) {
@@ -117,7 +110,7 @@ export default async function CompareRunsPage({ searchParams }: Props) {
     early && late
       ? Object.keys({ ...early.snapshot.parts, ...late.snapshot.parts })
           .filter((ref) => early.snapshot.parts[ref]?.valueSi !== late.snapshot.parts[ref]?.valueSi)
-          .map((ref) => `${ref} ${formatPartValue(early.snapshot.parts[ref]?.valueSi, unitOf(topology, ref))} → ${formatPartValue(late.snapshot.parts[ref]?.valueSi, unitOf(topology, ref))}`)
+          .map((ref) => `${ref} ${formatPartValue(early.snapshot.parts[ref]?.valueSi, partUnitOrBlank(topology, ref))} → ${formatPartValue(late.snapshot.parts[ref]?.valueSi, partUnitOrBlank(topology, ref))}`)
       : [];
   const between =
     early && late
