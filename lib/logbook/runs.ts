@@ -42,6 +42,12 @@ export interface RegisterRunInput {
 
 class IdempotencyRace extends Error {}
 
+/** The run a user's earlier request with this Idempotency-Key created, if it is still there. */
+async function idempotentRun(userId: string, idempotencyKey: string): Promise<q.Run | null> {
+  const firstId = await getIdempotentRunId(userId, idempotencyKey);
+  return firstId ? q.getRun(firstId) : null;
+}
+
 /**
  * Records a capture already in storage as a run of a build, and queues its analysis (technician and above).
  * Checks the object exists and its size, computes its SHA-256 by streaming it, and — in the one transaction that
@@ -120,8 +126,7 @@ export async function registerRun(actor: Actor, input: RegisterRunInput): Promis
     });
   } catch (err) {
     if (err instanceof IdempotencyRace && input.idempotencyKey) {
-      const firstId = await getIdempotentRunId(user.id, input.idempotencyKey);
-      const first = firstId ? await q.getRun(firstId) : null;
+      const first = await idempotentRun(user.id, input.idempotencyKey);
       if (first) return { kind: "created", run: first };
     }
     throw err;
@@ -157,8 +162,7 @@ export async function uploadRunFromStream(actor: Actor, input: StreamUploadInput
     buildId = build.id;
     checkCaptureFile(input.filename, input.contentType);
     if (input.idempotencyKey) {
-      const firstId = await getIdempotentRunId(user.id, input.idempotencyKey);
-      const first = firstId ? await q.getRun(firstId) : null;
+      const first = await idempotentRun(user.id, input.idempotencyKey);
       if (first) {
         input.stream.resume();
         return { kind: "existing", run: first };
