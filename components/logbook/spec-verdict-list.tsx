@@ -1,22 +1,7 @@
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import type { SpecCheck } from "@/lib/spec/types";
 import { MINUS } from "@/lib/format/numbers";
-
-const ruleNames: Record<string, string> = {
-  frequency: "Frequency",
-  thd: "THD",
-  amplitude: "Fundamental amplitude",
-  "in-record-drift": "Drift within the record",
-};
-
-function ruleName(rule: string): string {
-  if (ruleNames[rule]) return ruleNames[rule];
-  const harmonic = /^harmonic-(\d+)$/.exec(rule);
-  if (harmonic) return `Harmonic ${harmonic[1]}`;
-  const warning = /^warning-(.+)$/.exec(rule);
-  if (warning) return `Trust: ${warning[1].replace(/-/g, " ")}`;
-  return rule;
-}
+import { ruleName } from "@/components/review/rule-name";
 
 function marginText(check: SpecCheck): string | null {
   if (check.margin === null) return null;
