@@ -35,6 +35,25 @@ export function trailCrumbs(place: TrailPlace, here: string): Crumb[] {
   return crumbs;
 }
 
+/** The place of a page that sits under a build: the build with its design and project names. */
+export function buildPlace(build: {
+  id: string;
+  label: string;
+  projectId: string;
+  projectName: string;
+  designId: string;
+  designName: string;
+}): TrailPlace {
+  return {
+    projectId: build.projectId,
+    projectName: build.projectName,
+    designId: build.designId,
+    designName: build.designName,
+    buildId: build.id,
+    buildLabel: build.label,
+  };
+}
+
 /** Where a page sits: project › design › build. The last crumb is the page itself and is not a link. */
 export function Breadcrumbs({ items }: { items: Crumb[] }) {
   return (

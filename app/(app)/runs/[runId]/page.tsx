@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { cache } from "react";
-import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
+import { Breadcrumbs, buildPlace, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { isRowId } from "@/components/logbook/route-ids";
 import { RunView } from "@/components/logbook/run-view";
 import type { RunContext } from "@/components/logbook/run-types";
@@ -51,17 +51,7 @@ export default async function RunPage({ params }: Params) {
       <PageHeader
         eyebrow={
           <Breadcrumbs
-            items={trailCrumbs(
-              {
-                projectId: build.projectId,
-                projectName: build.projectName,
-                designId: build.designId,
-                designName: build.designName,
-                buildId: build.id,
-                buildLabel: build.label,
-              },
-              "Run",
-            )}
+            items={trailCrumbs(buildPlace(build), "Run")}
           />
         }
         title={<span className="break-all">{run.originalFilename}</span>}

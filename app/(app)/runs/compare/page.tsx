@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { SpectrumOverlayChart } from "@/components/charts/spectrum-overlay-chart";
-import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
+import { Breadcrumbs, buildPlace, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { isRowId } from "@/components/logbook/route-ids";
 import { runFigures } from "@/components/logbook/run-results";
 import { tweakLabel } from "@/components/logbook/tweak-label";
@@ -122,17 +122,7 @@ export default async function CompareRunsPage({ searchParams }: Props) {
       <PageHeader
         eyebrow={
           <Breadcrumbs
-            items={trailCrumbs(
-              {
-                projectId: build.projectId,
-                projectName: build.projectName,
-                designId: build.designId,
-                designName: build.designName,
-                buildId: build.id,
-                buildLabel: build.label,
-              },
-              "Compare runs",
-            )}
+            items={trailCrumbs(buildPlace(build), "Compare runs")}
           />
         }
         title="Compare two runs"
