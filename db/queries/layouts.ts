@@ -1,0 +1,150 @@
+import type { Knex } from "knex";
+import type { Topology } from "@/lib/oscillator/design";
+import { MIN_ALLOWANCE_F, RELATIVE_ALLOWANCE, SIGMA_ALLOWANCE } from "@/lib/drift-trend/implied-capacitance";
+import { db } from "../index";
+import type { BuildKind } from "./builds";
+
+/** One build whose implied extra capacitance holds across its tweaks, as the lab's figure rests on it. */
+export interface SteadyLayoutBuild {
+  buildId: string;
+  label: string;
+  designId: string;
+  designName: string;
+  projectId: string;
+  projectName: string;
+  /** Mean of the build's segment means, F (signed), over its trusted runs. */
+  typicalF: number;
+  /** Largest minus smallest segment mean, F. */
+  spreadF: number;
+  /** Trusted analysed runs behind the value. */
+  runCount: number;
+  /** Stretches between applied tweaks that hold a run. */
+  segmentCount: number;
+  /**
+   * Mean fractional error of L_eff that alone would explain the runs, (f_pred/f_meas)² − 1; negative when the build
+   * runs above its prediction. Null when no run has both frequencies.
+   */
+  inductanceErrorFraction: number | null;
+}
+
+/** The builds of one construction kind (PCBs per revision) and topology. */
+export interface LayoutGroupRows {
+  kind: BuildKind;
+  /** The PCB revision as first written ("rev B"); "" for the other kinds. */
+  kindRevision: string;
+  topology: Topology;
+  /** Builds with at least one trusted analysed run, steady or not. */
+  candidateBuildCount: number;
+  /** Builds whose trend is steady, ordered by their typical value. */
+  steadyBuilds: SteadyLayoutBuild[];
+}
+
+export interface LayoutFilter {
+  kind?: BuildKind;
+  topology?: Topology;
+}
+
+interface GroupRow {
+  kind: BuildKind;
+  kind_revision: string;
+  topology: Topology;
+  candidate_build_count: number;
+  steady_builds: SteadyLayoutBuild[] | null;
+}
+
+/*
+ * One statement for the whole lab, however many builds: the trusted runs (analysed, with an implied capacitance,
+ * no trust warning), their segments between applied tweaks (a tweak belongs before the first run at or after it,
+ * as the build page's timeline places it), each build's segment means, pooled repeatability and steadiness by the
+ * rule of lib/drift-trend's classifyImpliedCapacitanceTrend, then the steady builds per kind × topology.
+ */
+const AGGREGATE_SQL = `
+with trusted as (
+  select r.id, r.build_id, r.created_at,
+         r.implied_extra_capacitance_f as c_f,
+         case when (r.snapshot->>'cEffF')::double precision > 0 and r.measured_hz > 0 and r.frequency_uncertainty_hz >= 0
+              then 2 * abs((r.snapshot->>'cEffF')::double precision + r.implied_extra_capacitance_f) * r.frequency_uncertainty_hz / r.measured_hz
+         end as u_f,
+         case when r.measured_hz > 0 and coalesce((r.snapshot->>'predictedHz')::double precision, r.predicted_hz) > 0
+              then power(coalesce((r.snapshot->>'predictedHz')::double precision, r.predicted_hz) / r.measured_hz, 2) - 1
+         end as l_error,
+         lag(r.created_at) over (partition by r.build_id order by r.created_at, r.id) as previous_at
+  from runs r
+  join builds b on b.id = r.build_id
+  join designs d on d.id = b.design_id
+  where r.status = 'done'
+    and r.implied_extra_capacitance_f is not null
+    and coalesce(jsonb_array_length(case when jsonb_typeof(r.results->'warnings') = 'array' then r.results->'warnings' end), 0) = 0
+    and (?::text is null or b.kind = ?::text)
+    and (?::text is null or d.topology = ?::text)
+),
+segmented as (
+  select t.*,
+         sum(case when t.previous_at is not null and exists (
+               select 1 from tweaks w
+               where w.build_id = t.build_id and not w.planned and w.created_at > t.previous_at and w.created_at <= t.created_at
+             ) then 1 else 0 end)
+           over (partition by t.build_id order by t.created_at, t.id) as segment
+  from trusted t
+),
+segments as (
+  select build_id, segment, count(*) as n, avg(c_f) as mean_f, coalesce(var_samp(c_f), 0) * (count(*) - 1) as squares
+  from segmented group by build_id, segment
+),
+per_build as (
+  select s.build_id,
+         count(*)::int as segment_count,
+         sum(s.n)::int as run_count,
+         avg(s.mean_f) as typical_f,
+         max(s.mean_f) - min(s.mean_f) as spread_f,
+         sqrt(sum(s.squares) / nullif(sum(s.n - 1), 0)) as repeatability_f
+  from segments s group by s.build_id
+),
+judged as (
+  select p.*, m.measurement_f, m.l_error,
+         greatest(?::double precision, ? * abs(p.typical_f), ? * sqrt(2) * greatest(coalesce(p.repeatability_f, 0), coalesce(m.measurement_f, 0))) as allowance_f
+  from per_build p
+  join (select build_id, avg(u_f) as measurement_f, avg(l_error) as l_error from trusted group by build_id) m on m.build_id = p.build_id
+)
+select b.kind,
+       case when b.kind = 'pcb' then min(trim(b.kind_revision)) else '' end as kind_revision,
+       d.topology,
+       count(*)::int as candidate_build_count,
+       jsonb_agg(jsonb_build_object(
+         'buildId', b.id, 'label', b.label, 'designId', d.id, 'designName', d.name, 'projectId', p.id, 'projectName', p.name,
+         'typicalF', j.typical_f, 'spreadF', j.spread_f, 'runCount', j.run_count, 'segmentCount', j.segment_count,
+         'inductanceErrorFraction', j.l_error
+       ) order by j.typical_f, b.id) filter (where j.run_count >= 2 and j.segment_count >= 2 and j.spread_f <= j.allowance_f) as steady_builds
+from judged j
+join builds b on b.id = j.build_id
+join designs d on d.id = b.design_id
+join projects p on p.id = d.project_id
+group by b.kind, case when b.kind = 'pcb' then lower(trim(b.kind_revision)) else '' end, d.topology
+order by b.kind, kind_revision, d.topology
+`;
+
+/**
+ * What the lab's builds imply beyond their models, per construction kind (PCBs per revision) and topology: the
+ * builds whose implied extra capacitance is steady across tweaks, over trusted runs only. One query, no loop per
+ * build; the robust statistics over the builds are computed in lib/layouts.
+ */
+export async function listLayoutGroups(filter: LayoutFilter = {}, trx: Knex | Knex.Transaction = db()): Promise<LayoutGroupRows[]> {
+  const kind = filter.kind ?? null;
+  const topology = filter.topology ?? null;
+  const result = await trx.raw<{ rows: GroupRow[] }>(AGGREGATE_SQL, [
+    kind,
+    kind,
+    topology,
+    topology,
+    MIN_ALLOWANCE_F,
+    RELATIVE_ALLOWANCE,
+    SIGMA_ALLOWANCE,
+  ]);
+  return result.rows.map((r) => ({
+    kind: r.kind,
+    kindRevision: r.kind_revision,
+    topology: r.topology,
+    candidateBuildCount: r.candidate_build_count,
+    steadyBuilds: r.steady_builds ?? [],
+  }));
+}
