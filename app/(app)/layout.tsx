@@ -15,6 +15,7 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
   const items: NavItem[] = [
     { href: "/dashboard", label: "Home" },
     { href: "/projects", label: "Projects" },
+    { href: "/layouts", label: "Layouts" },
     ...(can(user.role, "people:manage") ? [{ href: "/people", label: "People" }] : []),
     ...(can(user.role, "audit:read") ? [{ href: "/audit", label: "Audit" }] : []),
     { href: "/profile", label: "Profile" },
