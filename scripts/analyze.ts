@@ -19,6 +19,7 @@ import {
   CaptureImporter,
   CaptureImportError,
   type Capture,
+  formatSampleRate,
   type Spectrum,
   windowedSpectrum,
 } from "../lib/analysis";
@@ -105,19 +106,33 @@ function formatDb(value: number | null, unit: string): string {
   return value === null ? "—" : `${value.toFixed(2)} ${unit}`;
 }
 
+function thdText(result: AnalysisResult): string {
+  const orders = `orders 2–${result.harmonicOrdersRequested}`;
+  if (result.thdPercent === null) return `not measured: ${result.thd.note ?? "no figure"} (${orders})`;
+  const floor = result.thd.floorPercent > 0 ? `; noise floor ${result.thd.floorPercent.toPrecision(2)} %` : "";
+  return `${result.thdPercent.toPrecision(4)} % (${formatDb(result.thdDb, "dB")}, over detected ${result.thd.detectedOrders.join(", ")} of ${orders}${floor})`;
+}
+
+function harmonicText(h: AnalysisResult["harmonics"][number]): string {
+  const where = h.folded ? `${formatHz(h.frequencyHz)} (seen at ${formatHz(h.seenAtHz)}, folded)` : formatHz(h.frequencyHz);
+  if (h.status === "measured") return `${where}  ${(h.amplitudeVpk as number).toExponential(3)} Vpk  ${formatDb(h.dBc, "dBc")}`;
+  if (h.status === "below-detection") return `${where}  < ${formatDb(h.detectionLimitDbc, "dBc")} (under the noise)`;
+  return `${where}  not measured: ${h.note}`;
+}
+
 function table(result: AnalysisResult): string {
+  const spur = result.largestSpur;
   const rows: [string, string][] = [
-    ["channel", `${result.channel} (${result.samples} samples at ${formatHz(result.sampleRateHz).replace("Hz", "S/s")})`],
-    ["frequency", `${formatHz(result.frequencyHz)} ± ${result.frequencyUncertaintyHz.toPrecision(3)} Hz (1σ)`],
+    ["channel", `${result.channel} (${result.samples} samples at ${formatSampleRate(result.sampleRateHz)})`],
+    ["frequency", `${formatHz(result.frequencyHz)} ± ${result.frequencyUncertaintyHz.toPrecision(3)} Hz (1σ statistical)`],
     ["fundamental", `${result.fundamentalVpk.toPrecision(5)} Vpk`],
     ["Vpp / Vrms / DC", `${result.vpp.toPrecision(5)} V / ${result.vrms.toPrecision(5)} V / ${result.dcV.toPrecision(4)} V`],
-    ["THD", `${result.thdPercent.toPrecision(4)} % (${formatDb(result.thdDb, "dB")}, orders 2–${result.harmonicOrdersRequested})`],
+    ["THD", thdText(result)],
     ["SINAD / SNR", `${formatDb(result.sinadDb, "dB")} / ${formatDb(result.snrDb, "dB")}`],
-    ["SFDR / ENOB", `${formatDb(result.sfdrDb, "dBc")} / ${result.enob === null ? "—" : result.enob.toFixed(2)}`],
+    ["SFDR / ENOB", `${formatDb(result.sfdrDb, "dBc")}${spur ? ` (against ${spur.label} at ${formatHz(spur.frequencyHz)})` : ""} / ${result.enob === null ? "—" : result.enob.toFixed(2)}`],
   ];
-  for (const h of result.harmonics) {
-    rows.push([`  H${h.order}`, `${formatHz(h.frequencyHz)}  ${h.amplitudeVpk.toExponential(3)} Vpk  ${formatDb(h.dBc, "dBc")}`]);
-  }
+  for (const h of result.harmonics) rows.push([`  H${h.order}`, harmonicText(h)]);
+  for (const s of result.spurs) rows.push([`  spur`, `${formatHz(s.frequencyHz)}  ${formatDb(s.dBc, "dBc")}  ${s.label}`]);
   if (result.twoChannel) {
     const tc = result.twoChannel;
     rows.push([`${tc.channel} vs ${tc.referenceChannel}`, `${tc.gainDb.toFixed(2)} dB, ${tc.phaseDeg.toFixed(2)}°`]);

@@ -1,136 +1,19 @@
-import type { Capture, CaptureChannel, TimeSource } from "./csv-import";
+import type { AnalysisMethod, AnalysisResult, CaptureAnalysis, Harmonic, Spur, TwoChannelResult } from "./analysis-result";
+import { coarseFrequency } from "./coarse-frequency";
+import type { Capture, CaptureChannel } from "./csv-import";
 import { CaptureImportError } from "./errors";
+import { formatSampleRate } from "./format-rate";
+import { frequencyUncertainty } from "./frequency-uncertainty";
 import { fitHarmonics, fitHarmonicsOfChannels } from "./harmonic-fit";
-import { amplitudeRatioToDb, enobFromSinadDb, sfdrDb, sinadDb, thdFToThdR, thdRatio } from "./metrics";
+import { reportHarmonics } from "./harmonic-report";
+import { amplitudeRatioToDb, enobFromSinadDb, sfdrDb, sinadDb, thdFToThdR } from "./metrics";
 import { type PlotData, peakToDbv, spectrumPlot, waveformEnvelope } from "./plot";
 import { fitSine4 } from "./sine-fit";
 import { coarsePeakHz, type Spectrum, windowedSpectrum } from "./spectrum";
-import { type GainPhase, gainPhaseFromFits } from "./two-channel";
-import { type AnalysisWarning, buildWarnings, checkClipping, checkDrift, checkEnvelope } from "./warnings";
+import { findSpurs, largestOtherBin } from "./spurs";
+import { gainPhaseFromFits } from "./two-channel";
+import { buildWarnings, checkClipping, checkDrift, checkEnvelope, checkTone } from "./warnings";
 import { ENGINE_VERSION } from "./version";
-
-/** One harmonic of the fundamental. */
-export interface Harmonic {
-  /** 2, 3, … */
-  order: number;
-  frequencyHz: number;
-  amplitudeVpk: number;
-  /** Level relative to the fundamental, dB (null when the fit finds exactly nothing). */
-  dBc: number | null;
-}
-
-/** The largest spectral component other than the fundamental and DC. */
-export interface Spur {
-  frequencyHz: number;
-  amplitudeVpk: number;
-  dBc: number | null;
-  /** A fitted harmonic, or a spectral peak elsewhere (a higher or aliased harmonic, hum, interference). */
-  kind: "harmonic" | "other";
-}
-
-/** The second channel against the analysed one, at the fundamental. */
-export interface TwoChannelResult extends GainPhase {
-  /** The analysed channel (the reference). */
-  referenceChannel: string;
-  /** The channel compared with it. */
-  channel: string;
-}
-
-/** How the figures were obtained, for the run's record. */
-export interface AnalysisMethod {
-  spectrum: string;
-  frequency: string;
-  harmonics: string;
-  noise: string;
-}
-
-/**
- * The numbers of one capture's analysis, in SI units (Hz, V, s; dB where named). Serialisable to
- * JSON as it stands: a dB figure that would be infinite is null.
- */
-export interface AnalysisResult {
-  engineVersion: string;
-  /** Name of the analysed channel. */
-  channel: string;
-  samples: number;
-  sampleRateHz: number;
-  recordS: number;
-  /** Fundamental frequency from the four-parameter sine fit. */
-  frequencyHz: number;
-  /** 1-sigma uncertainty of frequencyHz from the fit residual (white-noise model). */
-  frequencyUncertaintyHz: number;
-  fundamentalVpk: number;
-  /** Phase of the fundamental at the first sample, radians (cosine reference). */
-  fundamentalPhaseRad: number;
-  vpp: number;
-  /** Total rms, DC included. */
-  vrms: number;
-  /** DC offset from the least-squares fit (unbiased by a fractional last period, unlike the mean). */
-  dcV: number;
-  /** Plain mean of the samples. */
-  meanV: number;
-  minV: number;
-  maxV: number;
-  /** THD relative to the fundamental over the orders in `harmonics`, in %. */
-  thdPercent: number;
-  thdDb: number | null;
-  /** THD relative to the total rms of fundamental and harmonics, in %. */
-  thdRPercent: number;
-  sinadDb: number | null;
-  snrDb: number | null;
-  sfdrDb: number | null;
-  /** Effective number of bits, (SINAD − 1.76)/6.02: meaningful for a full-scale sine only. */
-  enob: number | null;
-  /** rms of what is left after DC, fundamental and harmonics are fitted out. */
-  noiseVrms: number;
-  /** Highest order asked for (the list holds those below Nyquist). */
-  harmonicOrdersRequested: number;
-  harmonics: Harmonic[];
-  largestSpur: Spur | null;
-  cycles: number;
-  samplesPerCycle: number;
-  /**
-   * Frequency of the first and last thirds of the record (distortion removed), for a spec that limits the drift
-   * within one capture; null when the record holds too few periods to fit its thirds.
-   */
-  inRecordDrift: InRecordDrift | null;
-  warnings: AnalysisWarning[];
-  twoChannel: TwoChannelResult | null;
-  /** Preamble metadata of the file, when the result came from a capture. */
-  metadata: Record<string, string>;
-  /** Voltage channels the file holds. */
-  channels: string[];
-  timeSource: TimeSource | "samples";
-  method: AnalysisMethod;
-}
-
-/** The in-record drift check's figures: last third minus first third, relative to the first, in ppm. */
-export interface InRecordDrift {
-  firstThirdHz: number;
-  lastThirdHz: number;
-  ppm: number;
-  /** |difference| in combined standard deviations of the two fits; null when both fits are exact (no noise). */
-  sigmas: number | null;
-}
-
-/** Wall time of each stage, milliseconds (only when asked for). */
-export interface AnalysisTimings {
-  statsMs: number;
-  fftMs: number;
-  fitMs: number;
-  harmonicsMs: number;
-  checksMs: number;
-  twoChannelMs: number;
-  plotMs: number;
-}
-
-/** What {@link analyzeCapture} returns: the numbers, and the plot data kept apart so JSON output can leave it out. */
-export interface CaptureAnalysis {
-  result: AnalysisResult;
-  /** Plot data (empty arrays when `plot: false` was asked for). */
-  plot: PlotData;
-  timings?: AnalysisTimings;
-}
 
 /** Options for {@link analyzeCapture} and {@link analyzeSamples}. */
 export interface AnalyzeOptions {
@@ -240,11 +123,11 @@ function analyzeRecord(
   // head's fit is good to a small fraction of the whole record's bin, where Gauss–Newton converges.
   const headLength = Math.min(n, COARSE_HEAD_SAMPLES);
   const head = headLength === n ? y : y.subarray(0, headLength);
-  const headPeakHz = max > min ? coarsePeakHz(windowedSpectrum(head, sampleRateHz)) : undefined;
-  if (headPeakHz === undefined) {
+  const coarse = max > min ? coarseFrequency(head, sampleRateHz) : undefined;
+  if (coarse === undefined) {
     throw new CaptureImportError("no oscillation found: the channel is flat");
   }
-  const coarseHz = headLength === n ? headPeakHz : fitSine4(head, sampleRateHz, headPeakHz, { toleranceBins: 1e-2 }).frequencyHz;
+  const coarseHz = headLength === n ? coarse.frequencyHz : fitSine4(head, sampleRateHz, coarse.frequencyHz, { toleranceBins: 1e-2 }).frequencyHz;
   const t2 = now();
 
   // First pass: frequency from the raw record, harmonics there, and the record with them removed.
@@ -253,10 +136,11 @@ function analyzeRecord(
   const t3 = now();
   const spectrum = (options.spectrumOf ?? defaultSpectrum)(y, sampleRateHz, options.maxFftLength);
   // A safety net for records whose head is not representative (say, a transient that dies early):
-  // if the whole record's spectrum peaks elsewhere, start again from there.
+  // if the whole record's spectrum peaks elsewhere and a fit from there explains more, start again there.
   const fullPeakHz = coarsePeakHz(spectrum);
   if (fullPeakHz !== undefined && Math.abs(fullPeakHz - first.frequencyHz) > 3 * (sampleRateHz / spectrum.segmentLength)) {
-    first = fitSine4(y, sampleRateHz, fullPeakHz, { toleranceBins: 1e-3 });
+    const again = fitSine4(y, sampleRateHz, fullPeakHz, { toleranceBins: 1e-3 });
+    if (again.residualSumOfSquares < first.residualSumOfSquares) first = again;
   }
   const t3b = now();
   const cleaned = new Float64Array(n);
@@ -271,55 +155,27 @@ function analyzeRecord(
 
   const fundamentalVpk = harmonicFit.amplitudesVpk[0];
   const frequencyHz = fit.frequencyHz;
-  const harmonics: Harmonic[] = harmonicFit.orders.slice(1).map((order, i) => {
-    const amplitudeVpk = harmonicFit.amplitudesVpk[i + 1];
-    return { order, frequencyHz: order * frequencyHz, amplitudeVpk, dBc: finiteOrNull(amplitudeRatioToDb(amplitudeVpk / fundamentalVpk)) };
-  });
-  const thd = fundamentalVpk > 0 ? thdRatio(fundamentalVpk, harmonics.map((h) => h.amplitudeVpk)) : 0;
   const dof = Math.max(1, n - harmonicFit.parameters - 1);
   const noiseVariance = harmonicFit.noiseSumOfSquares / dof;
-  const frequencyUncertaintyHz = (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, noiseVariance * fit.omegaVarianceFactor));
+  const { harmonics, thd } = reportHarmonics(harmonicFit, maxOrder, sampleRateHz, noiseVariance);
+  const whiteNoiseHz = (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, noiseVariance * fit.omegaVarianceFactor));
+  const uncertainty = frequencyUncertainty(cleaned, sampleRateHz, frequencyHz, whiteNoiseHz);
   const signalRms = fundamentalVpk / Math.SQRT2;
   const noiseVrms = Math.sqrt(harmonicFit.noiseSumOfSquares / n);
   const nadRms = Math.sqrt(harmonicFit.noiseAndDistortionSumOfSquares / n);
   const sinad = sinadDb(signalRms, nadRms);
   const snr = sinadDb(signalRms, noiseVrms);
+  const tone = checkTone(fundamentalVpk, n, harmonicFit.noiseAndDistortionSumOfSquares / Math.max(1, n - 3));
 
-  // Largest spur: the biggest fitted harmonic, or a spectral peak away from DC, the fundamental and the fitted harmonics.
-  let spur: Spur | null = null;
-  for (const h of harmonics) {
-    if (!spur || h.amplitudeVpk > spur.amplitudeVpk) spur = { frequencyHz: h.frequencyHz, amplitudeVpk: h.amplitudeVpk, dBc: h.dBc, kind: "harmonic" };
-  }
-  const padding = spectrum.fftLength / spectrum.segmentLength;
-  const guard = Math.ceil((spectrum.lobeHalfWidthBins + 1) * padding);
-  const excluded = new Uint8Array(spectrum.amplitudeVpk.length);
-  const exclude = (centreBin: number) => {
-    const lo = Math.max(0, Math.floor(centreBin) - guard);
-    const hi = Math.min(excluded.length - 1, Math.ceil(centreBin) + guard);
-    for (let k = lo; k <= hi; k++) excluded[k] = 1;
-  };
-  exclude(0);
-  for (const order of harmonicFit.orders) exclude((order * frequencyHz) / spectrum.binHz);
-  let spurBin = -1;
-  for (let k = 0; k < excluded.length; k++) {
-    if (!excluded[k] && (spurBin < 0 || spectrum.amplitudeVpk[k] > spectrum.amplitudeVpk[spurBin])) spurBin = k;
-  }
-  if (spurBin >= 0 && (!spur || spectrum.amplitudeVpk[spurBin] > spur.amplitudeVpk)) {
-    const amplitudeVpk = spectrum.amplitudeVpk[spurBin];
-    spur = {
-      frequencyHz: spurBin * spectrum.binHz,
-      amplitudeVpk,
-      dBc: finiteOrNull(amplitudeRatioToDb(amplitudeVpk / fundamentalVpk)),
-      kind: "other",
-    };
-  }
+  const spurs = findSpurs(spectrum, frequencyHz, fundamentalVpk, harmonics.map((h) => h.seenAtHz), maxOrder);
+  const largestSpur = largestComponent(harmonics, spurs, spectrum, frequencyHz, fundamentalVpk);
 
   const cycles = (frequencyHz * n) / sampleRateHz;
   const samplesPerCycle = sampleRateHz / frequencyHz;
-  const clipping = checkClipping(y);
+  const clipping = checkClipping(y, samplesPerCycle);
   const envelope = checkEnvelope(cleaned, sampleRateHz, frequencyHz, noiseVrms);
   const drift = cycles >= 6 ? checkDrift(cleaned, sampleRateHz, frequencyHz) : undefined;
-  const warnings = buildWarnings({ cycles, samplesPerCycle, clipping, envelope, drift, maxV: max, minV: min });
+  const warnings = buildWarnings({ cycles, samplesPerCycle, clipping, envelope, drift, maxV: max, minV: min, tone, spurs, frequencyHz });
   const t7 = now();
 
   let twoChannel: TwoChannelResult | null = null;
@@ -335,14 +191,17 @@ function analyzeRecord(
       : {
           waveform: waveformEnvelope(y, sampleRateHz, startTimeS, options.waveformPoints ?? 2000),
           spectrum: spectrumPlot(spectrum, options.spectrumPoints ?? 4000),
+          // Markers sit where the spectrum shows each order (folded above Nyquist), at the fitted level.
           harmonicMarkers: harmonicFit.orders.map((order, i) => ({
             order,
-            frequencyHz: order * frequencyHz,
+            frequencyHz: order === 1 ? frequencyHz : (harmonics.find((h) => h.order === order)?.seenAtHz ?? order * frequencyHz),
             dBV: peakToDbv(harmonicFit.amplitudesVpk[i]),
           })),
         };
   const t9 = now();
 
+  const thdRatioValue = thd.ratio;
+  const neededSampleRateHz = harmonics.some((h) => h.status === "not-separable") ? neededRate(frequencyHz, maxOrder) : null;
   const result: AnalysisResult = {
     engineVersion: ENGINE_VERSION,
     channel: options.channel ?? "",
@@ -350,7 +209,8 @@ function analyzeRecord(
     sampleRateHz,
     recordS: n / sampleRateHz,
     frequencyHz,
-    frequencyUncertaintyHz,
+    frequencyUncertaintyHz: uncertainty.statisticalHz,
+    uncertainty,
     fundamentalVpk,
     fundamentalPhaseRad: fit.phaseRad,
     vpp: max - min,
@@ -359,17 +219,27 @@ function analyzeRecord(
     meanV: sum / n,
     minV: min,
     maxV: max,
-    thdPercent: 100 * thd,
-    thdDb: finiteOrNull(amplitudeRatioToDb(thd)),
-    thdRPercent: 100 * thdFToThdR(thd),
+    thdPercent: thdRatioValue === null ? null : 100 * thdRatioValue,
+    thdDb: thdRatioValue === null ? null : finiteOrNull(amplitudeRatioToDb(thdRatioValue)),
+    thdRPercent: thdRatioValue === null ? null : 100 * thdFToThdR(thdRatioValue),
+    thd: {
+      status: thd.status,
+      floorPercent: 100 * thd.floorRatio,
+      upperBoundPercent: thd.status === "not-measurable" ? null : 100 * Math.hypot(thdRatioValue ?? 0, thd.floorRatio),
+      detectedOrders: thd.detectedOrders,
+      note: neededSampleRateHz === null ? thd.note : `${thd.note}; ${samplingAdvice(neededSampleRateHz, maxOrder)}`,
+      neededSampleRateHz,
+    },
     sinadDb: finiteOrNull(sinad),
     snrDb: finiteOrNull(snr),
-    sfdrDb: spur ? finiteOrNull(sfdrDb(fundamentalVpk, spur.amplitudeVpk)) : null,
+    sfdrDb: largestSpur ? finiteOrNull(sfdrDb(fundamentalVpk, largestSpur.amplitudeVpk)) : null,
     enob: finiteOrNull(enobFromSinadDb(sinad)),
     noiseVrms,
     harmonicOrdersRequested: maxOrder,
     harmonics,
-    largestSpur: spur,
+    spurs,
+    largestSpur,
+    tone: { ...tone, statistic: finiteOrNull(tone.statistic) ?? Number.MAX_VALUE, toneOverRestDb: finiteOrNull(tone.toneOverRestDb) },
     cycles,
     samplesPerCycle,
     inRecordDrift: drift
@@ -400,6 +270,51 @@ function analyzeRecord(
     };
   }
   return analysis;
+}
+
+/**
+ * A sample rate that keeps orders up to `maxOrder` clear below half of it: 2·H·f with 5 % to spare
+ * (at exactly 2·H·f the top order sits on Nyquist), rounded up to two significant digits.
+ */
+function neededRate(frequencyHz: number, maxOrder: number): number {
+  const raw = 2.1 * maxOrder * frequencyHz;
+  const scale = 10 ** (Math.floor(Math.log10(raw)) - 1);
+  return Math.ceil(Number((raw / scale).toPrecision(4))) * scale;
+}
+
+/** "sample at ≥ 4.2 MS/s to see harmonics up to 10" */
+export function samplingAdvice(sampleRateHz: number, maxOrder: number): string {
+  return `sample at ≥ ${formatSampleRate(sampleRateHz)} to see harmonics up to ${maxOrder}`;
+}
+
+/**
+ * The component SFDR is measured against: the largest measured harmonic or listed spur, or when
+ * neither is there the highest spectrum bin left (the noise's own peak).
+ */
+function largestComponent(harmonics: readonly Harmonic[], spurs: readonly Spur[], spectrum: Spectrum, frequencyHz: number, fundamentalVpk: number): Spur | null {
+  let best: Spur | null = null;
+  for (const h of harmonics) {
+    if (h.status !== "measured" || h.amplitudeVpk === null) continue;
+    if (!best || h.amplitudeVpk > best.amplitudeVpk) {
+      best = {
+        frequencyHz: h.seenAtHz,
+        amplitudeVpk: h.amplitudeVpk,
+        dBc: h.dBc,
+        kind: "harmonic",
+        label: h.folded ? `harmonic ${h.order} (folded)` : `harmonic ${h.order}`,
+      };
+    }
+  }
+  for (const s of spurs) if (!best || s.amplitudeVpk > best.amplitudeVpk) best = s;
+  if (best) return best;
+  const noisePeak = largestOtherBin(spectrum, [0, frequencyHz, ...harmonics.map((h) => h.seenAtHz)]);
+  if (!noisePeak) return null;
+  return {
+    ...noisePeak,
+    dBc: finiteOrNull(amplitudeRatioToDb(noisePeak.amplitudeVpk / fundamentalVpk)),
+    kind: "other",
+    label: "the noise's highest bin",
+  };
 }
 
 /**

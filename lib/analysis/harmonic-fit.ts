@@ -1,12 +1,17 @@
-import { solveSymmetric } from "./linear-algebra";
+import { inverseDiagonal, solveSymmetric } from "./linear-algebra";
 
 /** Least-squares fit of DC plus harmonics 1..H of a known fundamental. */
 export interface HarmonicFit {
   /** ω of the fundamental, radians per sample. */
   omegaRadPerSample: number;
   dcV: number;
-  /** Orders fitted, 1..H (those below Nyquist). */
+  /**
+   * Orders fitted, ascending from 1: every order up to H whose folded frequency can be told apart
+   * (see {@link separableOrders}); orders above Nyquist are fitted where they fold to.
+   */
   orders: number[];
+  /** Orders 2..H left out because their folded frequency lands on DC, Nyquist, the fundamental or another order. */
+  notSeparable: NotSeparableOrder[];
   /** Peak amplitude per order, volts (index i ↔ orders[i]). */
   amplitudesVpk: number[];
   /** Phase per order at the centre of the span, radians (cosine reference). */
@@ -18,6 +23,12 @@ export interface HarmonicFit {
   noiseSumOfSquares: number;
   /** Σ (y − DC − fundamental)², V²: noise and distortion. */
   noiseAndDistortionSumOfSquares: number;
+  /**
+   * Per order, the variance of its cos and sin coefficients (mean of the two) per V² of white-noise
+   * variance: ([G⁻¹]cos + [G⁻¹]sin)/2, about 2/L for well-separated orders and larger where a
+   * folded order sits close to another column. For detection limits.
+   */
+  coefficientVarianceFactors: number[];
   /** Parameters fitted (1 + 2H), for degrees of freedom. */
   parameters: number;
   start: number;
@@ -33,6 +44,67 @@ export interface HarmonicFitOptions {
    * second, distortion-free frequency fit. Same length as the record.
    */
   cleanedOut?: Float64Array;
+}
+
+/** An order that cannot be measured on this record, and what its fold lands on. */
+export interface NotSeparableOrder {
+  order: number;
+  /** Where the order folds to, radians per sample in [0, π]. */
+  aliasRadPerSample: number;
+  /** What the fold lands on within the record's resolution. */
+  collidesWith: "dc" | "nyquist" | "fundamental" | "harmonic";
+  /** The other order, when collidesWith is "harmonic". */
+  otherOrder?: number;
+}
+
+/**
+ * Where a tone at ω (radians per sample, any size) is seen once sampled: |ω − 2πk| folded into
+ * [0, π] (IEEE Std 1241 practice for harmonics above half the sample rate).
+ */
+export function foldedRadPerSample(omegaRadPerSample: number): number {
+  const turn = 2 * Math.PI;
+  const r = ((omegaRadPerSample % turn) + turn) % turn;
+  return r <= Math.PI ? r : turn - r;
+}
+
+/**
+ * Splits orders 1..maxOrder into those a least-squares fit can measure and those it cannot. An
+ * order's columns are exactly those of its folded frequency, so it can be fitted there, unless the
+ * fold lands within one bin (2π/L, the record's resolution) of DC or Nyquist (where the sine column
+ * vanishes), of the fundamental, or of another order's fold: the columns are then (nearly) the same
+ * and the fit cannot attribute the power. Colliding orders are both left out.
+ *
+ * @returns the fitted orders (1 always first) and the ones left out with the reason
+ */
+export function separableOrders(
+  omegaRadPerSample: number,
+  length: number,
+  maxOrder: number,
+): { orders: number[]; notSeparable: NotSeparableOrder[] } {
+  const bin = (2 * Math.PI) / length;
+  const fundamental = foldedRadPerSample(omegaRadPerSample);
+  const aliases = new Map<number, number>();
+  for (let h = 2; h <= maxOrder; h++) aliases.set(h, foldedRadPerSample(h * omegaRadPerSample));
+  const notSeparable: NotSeparableOrder[] = [];
+  const orders = [1];
+  for (let h = 2; h <= maxOrder; h++) {
+    const alias = aliases.get(h) as number;
+    let reason: Omit<NotSeparableOrder, "order" | "aliasRadPerSample"> | null = null;
+    if (alias < bin) reason = { collidesWith: "dc" };
+    else if (Math.PI - alias < bin) reason = { collidesWith: "nyquist" };
+    else if (Math.abs(alias - fundamental) < bin) reason = { collidesWith: "fundamental" };
+    else {
+      for (let j = 2; j <= maxOrder; j++) {
+        if (j !== h && Math.abs((aliases.get(j) as number) - alias) < bin) {
+          reason = { collidesWith: "harmonic", otherOrder: j };
+          break;
+        }
+      }
+    }
+    if (reason) notSeparable.push({ order: h, aliasRadPerSample: alias, ...reason });
+    else orders.push(h);
+  }
+  return { orders, notSeparable };
 }
 
 // The record is walked in blocks that stay in the L1 cache. Each block starts its rotation from
@@ -67,7 +139,8 @@ interface Projections {
  * twice as fast as the plain one; they are the hottest code of the engine.
  */
 
-function projectOne(y: Float64Array, start: number, length: number, omega: number, orderCount: number): Projections {
+function projectOne(y: Float64Array, start: number, length: number, omega: number, orders: readonly number[]): Projections {
+  const orderCount = orders.length;
   const centre = (length - 1) / 2;
   const block = BLOCK_SAMPLES;
   const pc = new Float64Array(orderCount + 1);
@@ -88,7 +161,7 @@ function projectOne(y: Float64Array, start: number, length: number, omega: numbe
     pc[0] += dc;
     sumOfSquares += squares;
     for (let h = 1; h <= orderCount; h++) {
-      const w = h * omega;
+      const w = orders[h - 1] * omega;
       const rc = Math.cos(w);
       const rs = Math.sin(w);
       let ac = Math.cos(w * (first - centre));
@@ -132,8 +205,9 @@ function projectTwo(
   start: number,
   length: number,
   omega: number,
-  orderCount: number,
+  orders: readonly number[],
 ): [Projections, Projections] {
+  const orderCount = orders.length;
   const centre = (length - 1) / 2;
   const block = BLOCK_SAMPLES;
   const out: [Projections, Projections] = [0, 1].map(() => ({
@@ -164,7 +238,7 @@ function projectTwo(
     q.pc[0] += dcZ;
     q.sumOfSquares += sqZ;
     for (let h = 1; h <= orderCount; h++) {
-      const w = h * omega;
+      const w = orders[h - 1] * omega;
       const rc = Math.cos(w);
       const rs = Math.sin(w);
       let ac = Math.cos(w * (first - centre));
@@ -221,30 +295,35 @@ function project(
   start: number,
   length: number,
   omega: number,
-  orderCount: number,
+  orders: readonly number[],
 ): Projections[] {
   const out: Projections[] = [];
   for (let k = 0; k < ys.length; k += 2) {
-    if (k + 1 < ys.length) out.push(...projectTwo(ys[k], ys[k + 1], start, length, omega, orderCount));
-    else out.push(projectOne(ys[k], start, length, omega, orderCount));
+    if (k + 1 < ys.length) out.push(...projectTwo(ys[k], ys[k + 1], start, length, omega, orders));
+    else out.push(projectOne(ys[k], start, length, omega, orders));
   }
   return out;
 }
 
-function gramMatrices(omega: number, length: number, orderCount: number): { gc: Float64Array; gs: Float64Array } {
-  // cos block over orders 0..H (order 0 is the DC column), sin block over 1..H.
-  const nc = orderCount + 1;
-  const ns = orderCount;
+function gramMatrices(omega: number, length: number, orders: readonly number[]): { gc: Float64Array; gs: Float64Array } {
+  // cos block over DC and the orders (the DC column is order 0), sin block over the orders.
+  const cosOrders = [0, ...orders];
+  const nc = cosOrders.length;
+  const ns = orders.length;
   const gc = new Float64Array(nc * nc);
   const gs = new Float64Array(ns * ns);
   for (let j = 0; j < nc; j++) {
     for (let k = 0; k < nc; k++) {
-      gc[j * nc + k] = 0.5 * (dirichlet((j - k) * omega, length) + dirichlet((j + k) * omega, length));
+      const oj = cosOrders[j];
+      const ok = cosOrders[k];
+      gc[j * nc + k] = 0.5 * (dirichlet((oj - ok) * omega, length) + dirichlet((oj + ok) * omega, length));
     }
   }
-  for (let j = 1; j <= ns; j++) {
-    for (let k = 1; k <= ns; k++) {
-      gs[(j - 1) * ns + (k - 1)] = 0.5 * (dirichlet((j - k) * omega, length) - dirichlet((j + k) * omega, length));
+  for (let j = 0; j < ns; j++) {
+    for (let k = 0; k < ns; k++) {
+      const oj = orders[j];
+      const ok = orders[k];
+      gs[j * ns + k] = 0.5 * (dirichlet((oj - ok) * omega, length) - dirichlet((oj + ok) * omega, length));
     }
   }
   return { gc, gs };
@@ -259,6 +338,7 @@ function residuals(
   dcV: number,
   cosV: Float64Array,
   sinV: Float64Array,
+  orders: readonly number[],
   cleaned: Float64Array | undefined,
 ): { noise: number; noiseAndDistortion: number } {
   const orderCount = cosV.length;
@@ -277,7 +357,7 @@ function residuals(
       const target = h === 1 ? fundamental : distortion;
       const ah = cosV[h - 1];
       const bh = sinV[h - 1];
-      const w = h * omega;
+      const w = orders[h - 1] * omega;
       const rc = Math.cos(w);
       const rs = Math.sin(w);
       let ac = Math.cos(w * (first - centre));
@@ -325,7 +405,7 @@ function residuals(
  *
  * @param y - the record in volts
  * @param omegaRadPerSample - fundamental ω = 2πf/fs in radians per sample
- * @param maxOrder - highest harmonic order H to fit (orders within a bin of Nyquist are left out)
+ * @param maxOrder - highest harmonic order H to fit (orders above Nyquist at their folded frequency; orders whose fold cannot be separated are left out)
  * @param options - span and an optional output buffer for the distortion-free record
  * @returns amplitudes, phases, DC and the residual sums of squares
  * @throws RangeError when the span is not inside the record or maxOrder < 1
@@ -366,15 +446,12 @@ export function fitHarmonicsOfChannels(
     throw new RangeError(`harmonic order must be an integer ≥ 1, got ${maxOrder}`);
   }
   const omega = omegaRadPerSample;
-  // A harmonic within one bin of Nyquist cannot be told from its own alias: keep it out.
-  const limit = Math.PI - (2 * Math.PI) / length;
-  let orderCount = 0;
-  while (orderCount < maxOrder && (orderCount + 1) * omega < limit) orderCount++;
-  orderCount = Math.max(orderCount, 1);
-  const orders = Array.from({ length: orderCount }, (_, i) => i + 1);
+  const { orders, notSeparable } = separableOrders(omega, length, maxOrder);
+  const orderCount = orders.length;
   const nc = orderCount + 1;
-  const { gc, gs } = gramMatrices(omega, length, orderCount);
-  const projections = project(ys, start, length, omega, orderCount);
+  const { gc, gs } = gramMatrices(omega, length, orders);
+  const projections = project(ys, start, length, omega, orders);
+  const coefficientVarianceFactors = orders.map((_, i) => (inverseDiagonal(gc, nc, i + 1) + inverseDiagonal(gs, orderCount, i)) / 2);
 
   return ys.map((y, channel) => {
     const { pc, ps, sumOfSquares } = projections[channel];
@@ -402,7 +479,7 @@ export function fitHarmonicsOfChannels(
     // The subtraction loses digits when the residual is tiny against the signal (SNR beyond
     // ~90 dB); then, or when the cleaned record is wanted, take the residual sample by sample.
     if (cleaned !== undefined || !(noise > 1e-9 * sumOfSquares)) {
-      ({ noise, noiseAndDistortion } = residuals(y, start, length, omega, dcV, cosV, sinV, cleaned));
+      ({ noise, noiseAndDistortion } = residuals(y, start, length, omega, dcV, cosV, sinV, orders, cleaned));
     }
     return {
       omegaRadPerSample: omega,
@@ -414,6 +491,8 @@ export function fitHarmonicsOfChannels(
       sinV,
       noiseSumOfSquares: Math.max(0, noise),
       noiseAndDistortionSumOfSquares: Math.max(0, noiseAndDistortion),
+      notSeparable,
+      coefficientVarianceFactors,
       parameters: 1 + 2 * orderCount,
       start,
       length,

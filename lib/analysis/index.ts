@@ -17,17 +17,22 @@
  */
 
 export { analysisChannels, analyzeCapture, analyzeSamples } from "./analyze-capture";
+export type { AnalyzeOptions } from "./analyze-capture";
 export type {
   AnalysisMethod,
   AnalysisResult,
   AnalysisTimings,
-  AnalyzeOptions,
   CaptureAnalysis,
+  FrequencyUncertainty,
   Harmonic,
+  HarmonicStatus,
   InRecordDrift,
   Spur,
+  SpurKind,
+  ThdSummary,
   TwoChannelResult,
-} from "./analyze-capture";
+} from "./analysis-result";
+export { formatSampleRate } from "./format-rate";
 export { CaptureImporter, importCapture, MAX_ABS_VOLTS, MIN_SAMPLES } from "./csv-import";
 export type { Capture, CaptureChannel, CaptureImportOptions, TimeSource } from "./csv-import";
 export type { CaptureColumn, ColumnKind } from "./columns";

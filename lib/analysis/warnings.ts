@@ -1,8 +1,17 @@
 import { fitHarmonics } from "./harmonic-fit";
 import { fitSine4 } from "./sine-fit";
+import type { Spur } from "./spurs";
 
 /** Why a capture's figures may not be trusted. */
-export type WarningCode = "clipping" | "not-steady" | "few-cycles" | "low-oversampling" | "in-record-drift";
+export type WarningCode =
+  | "clipping"
+  | "not-steady"
+  | "few-cycles"
+  | "low-oversampling"
+  | "in-record-drift"
+  | "no-dominant-tone"
+  | "second-mode"
+  | "sub-harmonic";
 
 /** One trust warning: a stable code for programs and a plain sentence for people. */
 export interface AnalysisWarning {
@@ -22,6 +31,18 @@ export const MAX_ENVELOPE_CHANGE = 0.1;
  * alarms; 4 also leaves room for the non-white error of a capture quantized without dither.
  */
 export const DRIFT_SIGMAS = 4;
+/** Below this many samples a period a clipped top is one or two samples wide, so flat runs cannot show it. */
+export const RUNLESS_CLIPPING_BELOW_SAMPLES_PER_CYCLE = 10;
+/** A non-harmonic tone within this many dB of the fundamental makes the frequency ambiguous. */
+export const SECOND_MODE_WITHIN_DB = 10;
+/** A sub-harmonic above this level (dBc) is period doubling worth a warning (common practice for the onset of squegging). */
+export const SUB_HARMONIC_ABOVE_DBC = -40;
+/**
+ * Periodogram ordinates of white noise are exponential, so the largest of N/2 exceeds ln(N/2) + t
+ * with probability about e^{−t} (Fisher's test for a hidden periodicity, 1929); t = 14 keeps false
+ * "tone found" verdicts on pure noise below 10⁻⁶.
+ */
+const TONE_DETECTION_MARGIN = 14;
 
 function percent(value: number): string {
   return `${(100 * value).toFixed(1)}%`;
@@ -40,7 +61,7 @@ export interface ClippingCheck {
 /**
  * Looks for flat tops: runs of samples sitting exactly at the record's maximum or minimum.
  *
- * Only runs of three or more count, so a coherent record that meets the same peak value once per
+ * Only runs of three or more count (every sample below 10 samples a period), so a coherent record that meets the same peak value once per
  * period is not mistaken for clipping. A quantized sine also dwells on its extreme code, so the
  * share in such runs is compared with what a sine of the record's amplitude spends within one code
  * step of its peak (θ/π with cos θ = 1 − step/A, the step being the gap to the next value inside
@@ -49,7 +70,7 @@ export interface ClippingCheck {
  * @param y - the record in volts
  * @returns the shares and the verdict for each extreme
  */
-export function checkClipping(y: Float64Array): ClippingCheck {
+export function checkClipping(y: Float64Array, samplesPerCycle = Infinity): ClippingCheck {
   let min = Infinity;
   let max = -Infinity;
   for (let i = 0; i < y.length; i++) {
@@ -63,7 +84,9 @@ export function checkClipping(y: Float64Array): ClippingCheck {
   const tolerance = 1e-9 * span;
   const top = max - tolerance;
   const bottom = min + tolerance;
-  const minRun = 3;
+  // At a few samples a period a clipped top holds one or two samples at a time: count every sample
+  // at the extreme then, and let the dwell comparison below tell clipping from a sine's own peaks.
+  const minRun = samplesPerCycle < RUNLESS_CLIPPING_BELOW_SAMPLES_PER_CYCLE ? 1 : 3;
   let inTopRuns = 0;
   let inBottomRuns = 0;
   let topRun = 0;
@@ -192,6 +215,34 @@ export function checkDrift(y: Float64Array, sampleRateHz: number, frequencyHz: n
   };
 }
 
+/** Whether the fitted tone stands above the rest of the record. */
+export interface ToneCheck {
+  /** Periodogram statistic of the fitted tone, A²·N / (4·σ²) with σ² the variance of all that is not DC or fundamental. */
+  statistic: number;
+  /** What pure noise would reach with probability 10⁻⁶: ln(N/2) + 14. */
+  threshold: number;
+  /** Fundamental power over everything else that is not DC, dB (the SINAD). */
+  toneOverRestDb: number;
+  detected: boolean;
+  dominant: boolean;
+}
+
+/**
+ * Tells a tone from noise: a fitted sine's amplitude is large on any record, so the question is
+ * whether it stands above what the largest periodogram line of pure noise would reach, and whether
+ * it carries more power than everything else.
+ *
+ * @param fundamentalVpk - fitted amplitude
+ * @param samples - record length
+ * @param restVariance - per-sample variance of noise and distortion (all that is not DC or fundamental)
+ */
+export function checkTone(fundamentalVpk: number, samples: number, restVariance: number): ToneCheck {
+  const statistic = restVariance > 0 ? (fundamentalVpk * fundamentalVpk * samples) / (4 * restVariance) : Infinity;
+  const threshold = Math.log(samples / 2) + TONE_DETECTION_MARGIN;
+  const toneOverRestDb = restVariance > 0 ? 10 * Math.log10((fundamentalVpk * fundamentalVpk) / 2 / restVariance) : Infinity;
+  return { statistic, threshold, toneOverRestDb, detected: statistic > threshold, dominant: toneOverRestDb > 0 };
+}
+
 /** Inputs for {@link buildWarnings}: the figures already measured. */
 export interface WarningInputs {
   cycles: number;
@@ -201,6 +252,15 @@ export interface WarningInputs {
   drift?: DriftCheck;
   maxV: number;
   minV: number;
+  tone?: ToneCheck;
+  spurs?: readonly Spur[];
+  frequencyHz?: number;
+}
+
+function hz(value: number): string {
+  const units: [number, string][] = [[1e9, "GHz"], [1e6, "MHz"], [1e3, "kHz"], [1, "Hz"]];
+  const [scale, unit] = units.find(([s]) => Math.abs(value) >= s) ?? [1, "Hz"];
+  return `${(value / scale).toPrecision(4)} ${unit}`;
 }
 
 /**
@@ -209,7 +269,29 @@ export interface WarningInputs {
  */
 export function buildWarnings(inputs: WarningInputs): AnalysisWarning[] {
   const warnings: AnalysisWarning[] = [];
-  const { clipping, envelope, drift } = inputs;
+  const { clipping, envelope, drift, tone } = inputs;
+  if (tone && !(tone.detected && tone.dominant)) {
+    warnings.push({
+      code: "no-dominant-tone",
+      message: tone.detected
+        ? `No dominant tone: the fitted tone carries ${tone.toneOverRestDb.toFixed(1)} dB against everything else in the record, so frequency, amplitude and harmonics describe noise or several tones, not one oscillation.`
+        : `No tone found: the strongest sine in the record stands no higher than noise alone would reach (statistic ${tone.statistic.toFixed(1)} against ${tone.threshold.toFixed(1)}), so the frequency is not a measurement; check the probe, the channel and that the oscillator runs.`,
+    });
+  }
+  const secondMode = inputs.spurs?.find((s) => s.kind === "second-mode" && s.dBc !== null && s.dBc > -SECOND_MODE_WITHIN_DB);
+  if (secondMode) {
+    warnings.push({
+      code: "second-mode",
+      message: `A second tone at ${hz(secondMode.frequencyHz)} is only ${(-(secondMode.dBc as number)).toFixed(1)} dB below the one taken as the fundamental${inputs.frequencyHz ? ` (${hz(inputs.frequencyHz)}, the stronger)` : ""}: the circuit oscillates in two modes, and which one wins can change from run to run.`,
+    });
+  }
+  const subHarmonic = inputs.spurs?.find((s) => s.kind === "sub-harmonic" && s.dBc !== null && s.dBc > SUB_HARMONIC_ABOVE_DBC);
+  if (subHarmonic) {
+    warnings.push({
+      code: "sub-harmonic",
+      message: `A sub-harmonic (${subHarmonic.label}) at ${hz(subHarmonic.frequencyHz)}, ${(subHarmonic.dBc as number).toFixed(1)} dBc: period doubling, often the onset of squegging (too much loop gain or a bias network that charges and discharges); the record is not one clean oscillation.`,
+    });
+  }
   if (clipping.clippedTop || clipping.clippedBottom) {
     const parts: string[] = [];
     if (clipping.clippedTop) parts.push(`${percent(clipping.topFraction)} of samples sit at the maximum ${inputs.maxV.toPrecision(4)} V`);

@@ -46,7 +46,7 @@ describe("analyzeCapture", () => {
     expect(result.enob as number).toBeCloseTo(((result.sinadDb as number) - 1.76) / 6.02, 12);
     expect(result.sfdrDb as number).toBeCloseTo(32, 1);
     expect(result.largestSpur?.kind).toBe("harmonic");
-    expect(result.thdPercent).toBeCloseTo(100 * Math.sqrt(result.harmonics.reduce((s, h) => s + h.amplitudeVpk ** 2, 0)) / result.fundamentalVpk, 9);
+    expect(result.thdPercent).toBeCloseTo(100 * Math.sqrt(result.harmonics.reduce((s, h) => s + (h.amplitudeVpk ?? 0) ** 2, 0)) / result.fundamentalVpk, 9);
   });
 
   it("reports Vpp, total rms with DC, the channel, its metadata and the engine version", () => {
@@ -74,11 +74,16 @@ describe("analyzeCapture", () => {
     expect(plot.harmonicMarkers[0].dBV).toBeCloseTo(fundamentalDbv, 2);
   });
 
-  it("counts only the harmonics asked for, and only those below Nyquist", () => {
+  it("counts the harmonics asked for, those above Nyquist at their folded frequency |h·f − k·fs|", () => {
     const capture = importCapture(synthCaptureCsv(CAPTURE));
     expect(analyzeCapture(capture, { harmonics: 5 }).result.harmonics.map((h) => h.order)).toEqual([2, 3, 4, 5]);
-    const slow = synthSamples({ ...CAPTURE, frequencyHz: 11e6, second: undefined }).channels[0];
-    expect(analyzeSamples(slow, 100e6, { harmonics: 10 }).result.harmonics.map((h) => h.order)).toEqual([2, 3, 4]);
+    const fast = synthSamples({ ...CAPTURE, frequencyHz: 11e6, second: undefined }).channels[0];
+    const { harmonics } = analyzeSamples(fast, 100e6, { harmonics: 10 }).result;
+    expect(harmonics.map((h) => h.order)).toEqual([2, 3, 4, 5, 6, 7, 8, 9, 10]);
+    expect(harmonics.filter((h) => h.folded).map((h) => h.order)).toEqual([5, 6, 7, 8, 9, 10]);
+    // 5 × 11 MHz = 55 MHz is seen at 100 − 55 = 45 MHz; 9 × 11 = 99 MHz at 1 MHz.
+    expect(harmonics[3].seenAtHz / 1e6).toBeCloseTo(45, 4);
+    expect(harmonics[7].seenAtHz / 1e6).toBeCloseTo(1, 4);
   });
 
   it("analyses the channel asked for, and rejects one that is not there", () => {
@@ -96,7 +101,7 @@ describe("analyzeCapture", () => {
     const whole = analyzeSamples(y, CAPTURE.sampleRateHz).result;
     const segmented = analyzeSamples(y, CAPTURE.sampleRateHz, { maxFftLength: 8192 });
     expect(segmented.result.frequencyHz).toBeCloseTo(whole.frequencyHz, 6);
-    expect(segmented.result.thdPercent).toBeCloseTo(whole.thdPercent, 9);
+    expect(segmented.result.thdPercent).toBeCloseTo(whole.thdPercent as number, 9);
     expect(segmented.plot.spectrum.binHz).toBeCloseTo(CAPTURE.sampleRateHz / 8192, 6);
   });
 

@@ -51,7 +51,17 @@ describe.each(LAUNCHERS)("analyze command via %s", (_name, command) => {
     expect(result.samples).toBe(20_000);
     expect(result.frequencyHz).toBeCloseTo(98_765.4321, 1);
     expect(result.harmonics.map((h: { order: number }) => h.order)).toEqual([2, 3, 4, 5]);
-    expect(result.harmonics[0]).toEqual({ order: 2, frequencyHz: expect.any(Number), amplitudeVpk: expect.any(Number), dBc: expect.any(Number) });
+    expect(result.harmonics[0]).toEqual({
+      order: 2,
+      frequencyHz: expect.any(Number),
+      seenAtHz: expect.any(Number),
+      folded: false,
+      status: "measured",
+      amplitudeVpk: expect.any(Number),
+      dBc: expect.any(Number),
+      detectionLimitDbc: expect.any(Number),
+      note: null,
+    });
     expect(result).not.toHaveProperty("plot");
   });
 

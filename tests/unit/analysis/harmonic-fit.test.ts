@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { fitHarmonics, fitHarmonicsOfChannels } from "@/lib/analysis/harmonic-fit";
+import { fitHarmonics, fitHarmonicsOfChannels, foldedRadPerSample, separableOrders } from "@/lib/analysis/harmonic-fit";
 import { thdRatio } from "@/lib/analysis/metrics";
 import { bandLimitedThd, bandLimitedWave, harmonicLaw, SeededRandom, type WaveShape } from "../../helpers/signals";
 
@@ -47,9 +47,35 @@ describe("fitHarmonics", () => {
     fit.amplitudesVpk.forEach((a, i) => expect(Math.abs(a / (2 * Math.abs(harmonicLaw("sawtooth", i + 1))) - 1)).toBeLessThan(1e-9));
   });
 
-  it("leaves out orders at or within a bin of Nyquist", () => {
-    const fit = fitHarmonics(bandLimitedWave("square", 1000, 0.09, 5), 2 * Math.PI * 0.09, 10);
-    expect(fit.orders).toEqual([1, 2, 3, 4, 5]); // 6 × 0.09 > 0.5
+  it("fits orders above Nyquist where they fold to, |h·f − k·fs| (IEEE Std 1241 practice), and recovers their level", () => {
+    // 0.131 fs: order 4 is at 0.524 fs and is seen at 0.476 fs; planted at −25 dBc.
+    const n = 4000;
+    const cycles = 0.131;
+    const y = new Float64Array(n);
+    for (let i = 0; i < n; i++) y[i] = Math.cos(2 * Math.PI * cycles * i + 0.3) + 0.0562341 * Math.cos(2 * Math.PI * 4 * cycles * i + 1.1);
+    const fit = fitHarmonics(y, 2 * Math.PI * cycles, 10);
+    expect(fit.orders).toEqual([1, 2, 3, 4, 5, 6, 7, 8, 9, 10]);
+    expect(fit.amplitudesVpk[3]).toBeCloseTo(0.0562341, 9);
+    expect(foldedRadPerSample(2 * Math.PI * 4 * cycles) / (2 * Math.PI)).toBeCloseTo(1 - 4 * cycles, 12);
+  });
+
+  it("leaves out an order whose fold lands on DC, Nyquist, the fundamental or another order", () => {
+    // f = fs/4 exactly: order 2 sits on Nyquist, 3 folds onto the fundamental, 4 onto DC, 5 onto the fundamental again.
+    const split = separableOrders(Math.PI / 2, 1000, 6);
+    expect(split.orders).toEqual([1]);
+    expect(split.notSeparable.map((o) => [o.order, o.collidesWith])).toEqual([
+      [2, "nyquist"],
+      [3, "fundamental"],
+      [4, "dc"],
+      [5, "fundamental"],
+      [6, "nyquist"],
+    ]);
+    // 0.2 fs: order 3 (0.6 → 0.4 fs) and order 2 (0.4 fs) land on each other.
+    const pair = separableOrders(2 * Math.PI * 0.2, 1000, 3);
+    expect(pair.notSeparable.map((o) => [o.order, o.collidesWith, o.otherOrder])).toEqual([
+      [2, "harmonic", 3],
+      [3, "harmonic", 2],
+    ]);
   });
 
   it("splits the residual into noise and noise-plus-distortion", () => {

@@ -18,7 +18,7 @@ describe("applyProbeAttenuation", () => {
     const probed = analyzeCapture(applyProbeAttenuation(importCapture(new TextEncoder().encode(csv)), 10)).result;
     expect(probed.fundamentalVpk / plain.fundamentalVpk).toBeCloseTo(10, 9);
     expect(probed.vpp / plain.vpp).toBeCloseTo(10, 9);
-    expect(probed.thdPercent).toBeCloseTo(plain.thdPercent, 9);
+    expect(probed.thdPercent).toBeCloseTo(plain.thdPercent as number, 9);
     expect(plain.harmonics[0].dBc).not.toBeNull();
     expect(probed.harmonics[0].dBc).toBeCloseTo(plain.harmonics[0].dBc!, 9);
     expect(probed.frequencyHz).toBeCloseTo(plain.frequencyHz, 6);
