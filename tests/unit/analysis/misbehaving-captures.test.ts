@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { analyzeSamples } from "@/lib/analysis";
-import { noisyTone, referenceSineFit, SeededRandom } from "../../helpers/signals";
+import { noisyTone, referenceSineFit, SeededRandom, whiteFmTone } from "../../helpers/signals";
 
 const codes = (y: Float64Array, fs: number, harmonics = 10) => analyzeSamples(y, fs, { harmonics }).result.warnings.map((w) => w.code);
 
@@ -177,5 +177,34 @@ describe("a clean control capture", () => {
   it("carries no warning at all", () => {
     const y = noisyTone(50000, 0.01713, 1.2, 0.3, 0.002, new SeededRandom(21), 0.1);
     expect(codes(y, 10e6)).toEqual([]);
+  });
+});
+
+describe("an honest 1σ", () => {
+  const n = 20000;
+  const cps = 0.01234;
+  const zRms = (make: (random: SeededRandom) => Float64Array, records: number) => {
+    let sumZ2 = 0;
+    let sumWhiteZ2 = 0;
+    for (let seed = 1; seed <= records; seed++) {
+      const { result } = analyzeSamples(make(new SeededRandom(1000 + seed)), 1);
+      const error = result.frequencyHz - cps;
+      sumZ2 += (error / result.frequencyUncertaintyHz) ** 2;
+      sumWhiteZ2 += (error / result.uncertainty.whiteNoiseHz) ** 2;
+    }
+    return { z: Math.sqrt(sumZ2 / records), whiteOnlyZ: Math.sqrt(sumWhiteZ2 / records) };
+  };
+
+  it("under white additive noise the z-scores have rms ≈ 1 (60 seeded records)", () => {
+    const { z } = zRms((random) => noisyTone(n, cps, 1, random.uniform() * 6, 0.05, random), 60);
+    expect(z).toBeGreaterThan(0.75);
+    expect(z).toBeLessThan(1.3);
+  });
+
+  it("under white FM (oscillator frequency noise) too, where the white-noise σ alone is many times too small", () => {
+    const { z, whiteOnlyZ } = zRms((random) => whiteFmTone(n, cps, 1, 2e-3, 0.01, random), 60);
+    expect(whiteOnlyZ).toBeGreaterThan(10);
+    expect(z).toBeGreaterThan(0.65);
+    expect(z).toBeLessThan(1.5);
   });
 });
