@@ -30,6 +30,8 @@ import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
 import { loadBuildReview } from "@/components/review/build-review-data";
 import { BuildToolsBar, DriftStoryCard, FlagsCard, ImpliedCapacitanceCard, RetuneSuggestionCard, SignOffCard } from "@/components/review/build-review-panels";
 import { E_SERIES_NAMES, type ESeriesName } from "@/lib/oscillator/e-series";
+import { CalibratedPredictionPanel } from "@/components/layouts/calibrated-prediction-panel";
+import { buildCalibration } from "@/lib/logbook/layouts";
 import { BuildActions } from "./build-actions";
 
 type Props = {
@@ -82,7 +84,7 @@ export default async function BuildPage({ params, searchParams }: Props) {
 
   const topology = design.topology;
   const rev = design.revision;
-  const review = await loadBuildReview(user, build, topology, { series });
+  const [review, calibration] = await Promise.all([loadBuildReview(user, build, topology, { series }), buildCalibration(user, build, design)]);
   const tweaks = review.tweaks;
   const flags = review.flags.filter((f) => f.acknowledgedAt === null);
   const asBuiltModel = designOfRevision(topology, { parts: build.asBuilt, extraCapacitanceF: rev.extraCapacitanceF, windings: rev.windings });
@@ -283,6 +285,12 @@ export default async function BuildPage({ params, searchParams }: Props) {
           <Card>
             <CardHeader title="Prediction for the as-built values" />
             <CardBody>{report ? <PredictionPanel report={report} /> : <p className="text-sm text-verdict-fail">{predictionError}</p>}</CardBody>
+          </Card>
+          <Card>
+            <CardHeader title="As it will likely measure on this construction" description="The as-built values with the lab's figure for this kind of build." />
+            <CardBody>
+              <CalibratedPredictionPanel view={calibration} />
+            </CardBody>
           </Card>
           {specPhrases(rev.spec).length > 0 ? (
             <p className="text-xs text-ink-soft">

@@ -24,6 +24,9 @@ import { formatDateTime } from "@/lib/format/dates";
 import { formatQuantity } from "@/lib/format/numbers";
 import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
 import { BuildsTableSection } from "@/components/builds-table/builds-table-section";
+import { CalibratedPredictionPanel } from "@/components/layouts/calibrated-prediction-panel";
+import { parseConstruction } from "@/lib/layouts/construction";
+import { designCalibration } from "@/lib/logbook/layouts";
 import { createBuildAction } from "../actions";
 
 type Props = {
@@ -68,6 +71,8 @@ export default async function DesignPage({ params, searchParams }: Props) {
     builds = await listBuilds(designId, { limit: 25 });
   }
   const revisions = await listDesignRevisions(designId);
+  const constructionParam = one(search.construction);
+  const calibration = await designCalibration(user, design, constructionParam ? parseConstruction(constructionParam) : null);
 
   const base = `/projects/${projectId}/designs/${designId}`;
   const rev = design.revision;
@@ -153,6 +158,12 @@ export default async function DesignPage({ params, searchParams }: Props) {
           <Card>
             <CardHeader title="Prediction" description="From the nominal values and tolerances of this revision." />
             <CardBody>{report ? <PredictionPanel report={report} /> : <p className="text-sm text-verdict-fail">{predictionError}</p>}</CardBody>
+          </Card>
+          <Card id="calibrated" className="mt-5 scroll-mt-4">
+            <CardHeader title="As it will likely measure here" description="The lab's figure for a construction, added to this revision's prediction." />
+            <CardBody>
+              <CalibratedPredictionPanel view={calibration} chooserPath={`${base}#calibrated`} />
+            </CardBody>
           </Card>
         </aside>
       </div>
