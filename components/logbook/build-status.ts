@@ -1,7 +1,8 @@
 import type { Verdict } from "@/components/ui/verdict-badge";
+import type { RunVerdict } from "@/lib/spec/types";
 
 /** The badge of a build from its review status and its latest run (issue 7 refines "in spec / flagged"). */
-export function buildBadge(status: "open" | "accepted" | "rejected", latest: { status: string; verdict: "pass" | "fail" | null } | null): { verdict: Verdict; label?: string } {
+export function buildBadge(status: "open" | "accepted" | "rejected", latest: { status: string; verdict: RunVerdict | null } | null): { verdict: Verdict; label?: string } {
   if (status === "accepted") return { verdict: "accepted" };
   if (status === "rejected") return { verdict: "rejected" };
   if (!latest) return { verdict: "none", label: "No runs" };
@@ -9,11 +10,12 @@ export function buildBadge(status: "open" | "accepted" | "rejected", latest: { s
   if (latest.status !== "done") return { verdict: "pending" };
   if (latest.verdict === "fail") return { verdict: "flagged" };
   if (latest.verdict === "pass") return { verdict: "pass", label: "In spec" };
+  if (latest.verdict === "inconclusive") return { verdict: "inconclusive", label: "Cannot judge" };
   return { verdict: "none", label: "No spec" };
 }
 
 /** A run's badge from its analysis status and verdict. */
-export function runBadge(run: { status: string; verdict: "pass" | "fail" | null }): Verdict {
+export function runBadge(run: { status: string; verdict: RunVerdict | null }): Verdict {
   if (run.status === "failed") return "failed-analysis";
   if (run.status !== "done") return "pending";
   return run.verdict ?? "none";

@@ -1,6 +1,7 @@
 import type { Knex } from "knex";
 import type { Parts } from "./designs";
 import { db } from "../index";
+import type { Verdict } from "./runs";
 import { cursorColumn, likePattern, paginate, toNumber, toPage, type Page, type PageRequest } from "./pagination";
 
 export const BUILD_KINDS = ["breadboard", "perfboard", "pcb", "other"] as const;
@@ -42,7 +43,7 @@ export interface LatestRun {
   measuredHz: number | null;
   driftPpm: number | null;
   thdPercent: number | null;
-  verdict: "pass" | "fail" | null;
+  verdict: Verdict | null;
 }
 
 export interface BuildSummary extends Build {

@@ -9,7 +9,8 @@ import { cursorColumn, paginate, toNumber, toPage, type Page, type PageRequest }
 
 export const RUN_STATUSES = ["queued", "running", "done", "failed"] as const;
 export type RunStatus = (typeof RUN_STATUSES)[number];
-export type Verdict = "pass" | "fail";
+/** A run's spec verdict; "inconclusive" when no rule failed but one could not be judged on the capture. */
+export type Verdict = "pass" | "fail" | "inconclusive";
 
 /** What the build was when the capture was logged; the run is judged against this, never against later values. */
 export interface RunSnapshot {

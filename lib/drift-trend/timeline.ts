@@ -4,6 +4,7 @@
  * lines are flat across a run and step exactly halfway between two runs when a tweak changed a part there.
  * Tweak markers sit at those halfway points. Pure: no I/O.
  */
+import type { RunVerdict } from "@/lib/spec/types";
 
 /** Points per run in the aligned series: the left edge, the run itself, the right edge. */
 export const POINTS_PER_RUN = 3;
@@ -35,7 +36,7 @@ export interface TimelineRunInput {
   spec: TimelineSpec | null;
   thdPercent: number | null;
   worstHarmonicDbc: number | null;
-  verdict: "pass" | "fail" | null;
+  verdict: RunVerdict | null;
 }
 
 /** A tweak of the build; planned ones have not happened and are left out. */

@@ -92,11 +92,12 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
   }
 
   const { result, plot } = output;
-  const thdPercent = Number.isFinite(result.thdPercent) ? result.thdPercent : null;
+  const thdPercent = result.thdPercent !== null && Number.isFinite(result.thdPercent) ? result.thdPercent : null;
   const inRecordDriftPpm = result.inRecordDrift?.ppm ?? null;
   const evaluation = evaluateSpec(run.snapshot.spec ?? {}, {
     frequencyHz: result.frequencyHz,
     thdPercent,
+    thd: result.thd,
     harmonics: result.harmonics,
     fundamentalVpk: result.fundamentalVpk,
     inRecordDriftPpm,
@@ -128,7 +129,8 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
       await replaceRunFlags(
         runId,
         run.buildId,
-        evaluation.checks.filter((c) => !c.passed).map(({ rule, measured, limit, margin, unit, message }) => ({ rule, measured, limit, margin, unit, message })),
+        // Flags are broken rules; a rule the capture could not judge shows on the run as "cannot judge" instead.
+        evaluation.checks.filter((c) => c.outcome === "fail").map(({ rule, measured, limit, margin, unit, message }) => ({ rule, measured, limit, margin, unit, message })),
         trx,
       );
     }

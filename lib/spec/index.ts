@@ -1,2 +1,2 @@
-export { evaluateSpec, hasAnyLimit, FAILING_WARNINGS } from "./evaluate";
-export type { DesignSpec, SpecCheck, SpecEvaluation, SpecMeasurements, ToleranceUnit } from "./types";
+export { evaluateSpec, hasAnyLimit, FAILING_WARNINGS, UNJUDGEABLE_WARNINGS, verdictOf } from "./evaluate";
+export type { CheckOutcome, DesignSpec, RunVerdict, SpecCheck, SpecEvaluation, SpecMeasurements, ToleranceUnit } from "./types";

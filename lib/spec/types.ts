@@ -26,18 +26,44 @@ export interface DesignSpec {
 export interface SpecMeasurements {
   frequencyHz: number;
   thdPercent: number | null;
-  harmonics: ReadonlyArray<{ order: number; dBc: number | null }>;
+  /**
+   * How THD came out (the engine's `thd`); absent for results from before detection limits, which are
+   * judged on thdPercent alone.
+   */
+  thd?: {
+    status: "measured" | "below-floor" | "not-measurable";
+    upperBoundPercent: number | null;
+    floorPercent: number;
+    note: string | null;
+    neededSampleRateHz: number | null;
+  } | null;
+  /** Harmonics by order; status and detectionLimitDbc are absent on older results (then every listed level counts as measured). */
+  harmonics: ReadonlyArray<{
+    order: number;
+    dBc: number | null;
+    status?: "measured" | "below-detection" | "not-separable";
+    detectionLimitDbc?: number | null;
+    folded?: boolean;
+  }>;
   fundamentalVpk: number;
   /** Frequency change across the record, ppm (signed); null when the engine could not tell. */
   inRecordDriftPpm: number | null;
   warnings: ReadonlyArray<{ code: string; message: string }>;
 }
 
+/** A rule's outcome: inside its limit, outside it, or not decidable on this capture. */
+export type CheckOutcome = "pass" | "fail" | "cannot-judge";
+
 /** One evaluated rule. `margin` is positive inside the limit and negative outside, in `unit`. */
 export interface SpecCheck {
   /** Stable rule id: frequency, thd, harmonic-<n>, amplitude, in-record-drift, warning-<code>. */
   rule: string;
+  /** True only for outcome "pass". */
   passed: boolean;
+  /** Absent on checks stored before "cannot judge" existed (read them as pass or fail from `passed`). */
+  outcome?: CheckOutcome;
+  /** What would let the rule be judged ("sample at ≥ 4.2 MS/s to see harmonics up to 10"), for cannot-judge. */
+  advice?: string | null;
   measured: number | null;
   limit: number | null;
   margin: number | null;
@@ -47,8 +73,11 @@ export interface SpecCheck {
   message: string;
 }
 
+/** A run's verdict: "inconclusive" when nothing failed but some rule could not be judged (shown as "cannot judge"). */
+export type RunVerdict = "pass" | "fail" | "inconclusive";
+
 export interface SpecEvaluation {
-  /** pass when every check passed, fail when any failed, null when nothing was checked. */
-  verdict: "pass" | "fail" | null;
+  /** fail when any check failed, inconclusive when none failed but one could not be judged, pass when all passed, null when nothing was checked. */
+  verdict: RunVerdict | null;
   checks: SpecCheck[];
 }

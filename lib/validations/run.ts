@@ -49,7 +49,7 @@ export type UploadSlotRequest = z.output<typeof uploadSlotRequestSchema>;
 export const uploadCompleteSchema = runMetadataSchema;
 
 export const runListQuerySchema = pageQuerySchema.extend({
-  verdict: z.preprocess((v) => (v === "" ? undefined : v), z.enum(["pass", "fail", "none"], { error: "verdict is pass, fail or none." }).optional()),
+  verdict: z.preprocess((v) => (v === "" ? undefined : v), z.enum(["pass", "fail", "inconclusive", "none"], { error: "verdict is pass, fail, inconclusive or none." }).optional()),
   status: z.preprocess((v) => (v === "" ? undefined : v), z.enum(RUN_STATUSES, { error: `status is one of ${RUN_STATUSES.join(", ")}.` }).optional()),
   from: optionalTimeField("from"),
   to: optionalTimeField("to"),

@@ -4,7 +4,7 @@ import { documented } from "../documented";
 import { flagSchema, isoTime, nullableIsoTime, pageOf, partsSchema, predictionSchema, rowId, topologySchema, userId } from "./common";
 import { tweakSchema } from "./tweak";
 
-const verdictSchema = z.enum(["pass", "fail"]).nullable();
+const verdictSchema = z.enum(["pass", "fail", "inconclusive"]).nullable();
 
 const buildShape = {
   id: rowId,

@@ -6,7 +6,7 @@ import { designSpecSchema, flagSchema, isoTime, nullableIsoTime, pageOf, partsSc
 import { tweakSchema } from "./tweak";
 
 export const runStatusSchema = z.enum(RUN_STATUSES).describe("queued → running → done or failed.");
-const verdictSchema = z.enum(["pass", "fail"]).nullable().describe("pass, fail, or null when the design has no spec or the run is not done.");
+const verdictSchema = z.enum(["pass", "fail", "inconclusive"]).nullable().describe("pass, fail, inconclusive (no rule failed but one could not be judged on the capture: shown as \"cannot judge\"), or null when the design has no spec or the run is not done.");
 
 const runSummaryShape = {
   id: rowId,
@@ -73,7 +73,9 @@ export const runSnapshotSchema = documented(
 export const specCheckSchema = documented(
   z.object({
     rule: z.string(),
-    passed: z.boolean(),
+    passed: z.boolean().describe("True only when the outcome is pass."),
+    outcome: z.enum(["pass", "fail", "cannot-judge"]).optional().describe("Absent on checks stored before cannot-judge existed."),
+    advice: z.string().nullable().optional().describe("For cannot-judge: what would let the rule be judged."),
     measured: z.number().nullable(),
     limit: z.number().nullable(),
     margin: z.number().nullable(),
