@@ -10,6 +10,29 @@ export interface HarmonicRow {
   frequencyHz: number | null;
   amplitudeVpk: number | null;
   dBc: number | null;
+  /** Absent on results from before engine 1.2 (then a level means measured). */
+  status: "measured" | "below-detection" | "not-separable" | null;
+  folded: boolean;
+  seenAtHz: number | null;
+  detectionLimitDbc: number | null;
+  note: string | null;
+}
+
+export interface SpurRow {
+  frequencyHz: number;
+  dBc: number | null;
+  kind: string;
+  label: string;
+}
+
+/** THD's status and floor (engine 1.2 on); null on older results. */
+export interface ThdRow {
+  status: "measured" | "below-floor" | "not-measurable";
+  floorPercent: number;
+  upperBoundPercent: number | null;
+  detectedOrders: number[];
+  note: string | null;
+  neededSampleRateHz: number | null;
 }
 
 export interface WarningRow {
@@ -29,6 +52,12 @@ export interface RunFigures {
   sampleRateHz: number | null;
   samples: number | null;
   harmonics: HarmonicRow[];
+  thd: ThdRow | null;
+  spurs: SpurRow[];
+  /** The component SFDR is measured against, in words ("harmonic 3", "f/2"); null when not named. */
+  sfdrAgainst: string | null;
+  /** The frequency noise share of the 1σ, Hz (0 when the segment scatter is explained); null when not assessed. */
+  frequencyNoiseHz: number | null;
   warnings: WarningRow[];
   /** The capture's preamble lines, key → value. */
   metadata: Record<string, string>;
@@ -60,6 +89,10 @@ function first(root: Loose | undefined, ...paths: string[]): unknown[] {
   return paths.map((p) => at(root, p));
 }
 
+function readStatus(value: unknown): HarmonicRow["status"] {
+  return value === "measured" || value === "below-detection" || value === "not-separable" ? value : null;
+}
+
 function readHarmonics(value: unknown): HarmonicRow[] {
   if (!Array.isArray(value)) return [];
   return value
@@ -70,9 +103,40 @@ function readHarmonics(value: unknown): HarmonicRow[] {
       frequencyHz: num(h.frequencyHz),
       amplitudeVpk: num(h.amplitudeVpk, h.amplitudeV, h.vpk),
       dBc: num(h.dBc, h.dbc, h.levelDbc),
+      status: readStatus(h.status),
+      folded: h.folded === true,
+      seenAtHz: num(h.seenAtHz),
+      detectionLimitDbc: num(h.detectionLimitDbc),
+      note: typeof h.note === "string" ? h.note : null,
     }))
     .filter((h) => h.order >= 2)
     .sort((a, b) => a.order - b.order);
+}
+
+function readSpurs(value: unknown): SpurRow[] {
+  if (!Array.isArray(value)) return [];
+  return value
+    .map(asObject)
+    .filter((s): s is Loose => s !== undefined && typeof s.frequencyHz === "number")
+    .map((s) => ({
+      frequencyHz: s.frequencyHz as number,
+      dBc: num(s.dBc),
+      kind: typeof s.kind === "string" ? s.kind : "other",
+      label: typeof s.label === "string" ? s.label : "unidentified tone",
+    }));
+}
+
+function readThd(value: unknown): ThdRow | null {
+  const t = asObject(value);
+  if (!t || (t.status !== "measured" && t.status !== "below-floor" && t.status !== "not-measurable")) return null;
+  return {
+    status: t.status,
+    floorPercent: num(t.floorPercent) ?? 0,
+    upperBoundPercent: num(t.upperBoundPercent),
+    detectedOrders: Array.isArray(t.detectedOrders) ? t.detectedOrders.filter((o): o is number => typeof o === "number") : [],
+    note: typeof t.note === "string" ? t.note : null,
+    neededSampleRateHz: num(t.neededSampleRateHz),
+  };
 }
 
 function readWarnings(value: unknown): WarningRow[] {
@@ -114,6 +178,10 @@ export function runFigures(run: Pick<RunData, "results" | "measuredHz" | "freque
     sampleRateHz: num(...first(r, "sampleRateHz", "capture.sampleRateHz")),
     samples: num(...first(r, "samples", "sampleCount", "capture.samples")),
     harmonics: readHarmonics(at(r, "harmonics")),
+    thd: readThd(at(r, "thd")),
+    spurs: readSpurs(at(r, "spurs")),
+    sfdrAgainst: typeof at(r, "largestSpur.label") === "string" ? (at(r, "largestSpur.label") as string) : null,
+    frequencyNoiseHz: num(at(r, "uncertainty.frequencyNoiseHz")),
     warnings: readWarnings(at(r, "warnings")),
     metadata: readMetadata(at(r, "metadata") ?? at(r, "capture.metadata") ?? at(r, "preamble")),
   };
@@ -125,7 +193,12 @@ export function specMeasurements(f: RunFigures): SpecMeasurements | null {
   return {
     frequencyHz: f.frequencyHz,
     thdPercent: f.thdPercent,
-    harmonics: f.harmonics.map((h) => ({ order: h.order, dBc: h.dBc })),
+    thd: f.thd,
+    harmonics: f.harmonics.map((h) => ({
+      order: h.order,
+      dBc: h.dBc,
+      ...(h.status ? { status: h.status, detectionLimitDbc: h.detectionLimitDbc, folded: h.folded } : {}),
+    })),
     fundamentalVpk: f.fundamentalVpk,
     inRecordDriftPpm: f.inRecordDriftPpm,
     warnings: f.warnings,

@@ -9,32 +9,19 @@ import { WaveformChart } from "@/components/charts/waveform-chart";
 import { fetchJson } from "@/components/providers/query-provider";
 import { buttonVariants, Button } from "@/components/ui/button";
 import { Card, CardBody, CardHeader } from "@/components/ui/card";
-import { Table, Td, Th, Tr } from "@/components/ui/data-table";
 import { FormMessage } from "@/components/ui/field";
 import { VerdictBadge, type Verdict } from "@/components/ui/verdict-badge";
-import { formatBytes } from "@/lib/format/bytes";
 import { formatDateTime } from "@/lib/format/dates";
-import {
-  DASH,
-  formatDecibels,
-  formatDriftLeading,
-  formatPartValue,
-  formatPercent,
-  formatPpm,
-  formatQuantity,
-  formatRange,
-  formatSignedCapacitance,
-  formatThd,
-  formatWithUncertainty,
-} from "@/lib/format/numbers";
+import { formatQuantity } from "@/lib/format/numbers";
 import { analyseDrift, type DriftAnalysis } from "@/lib/oscillator/drift";
 import type { OscillatorDesign } from "@/lib/oscillator/design";
-import { partUnitOrBlank } from "@/components/logbook/part-unit";
 import { evaluateSpec } from "@/lib/spec/evaluate";
 import type { SpecEvaluation } from "@/lib/spec/types";
-import { MetricTile } from "./metric-tile";
 import { MetricsSkeleton } from "./skeletons";
-import { runFigures, specMeasurements, type RunFigures } from "./run-results";
+import { CaptureDetails } from "./run-capture-details";
+import { HeadlineMetrics, MeasuredVsPredicted } from "./run-figure-cards";
+import { HarmonicsTable, SpursTable } from "./run-harmonics";
+import { runFigures, specMeasurements } from "./run-results";
 import type { RunContext, RunData, RunPlot } from "./run-types";
 import { SpecVerdictList } from "./spec-verdict-list";
 import { TrustWarnings } from "./trust-warnings";
@@ -76,6 +63,7 @@ function badgeFor(run: RunData): Verdict {
   if (run.status !== "done") return "pending";
   if (run.verdict === "pass") return "pass";
   if (run.verdict === "fail") return "fail";
+  if (run.verdict === "inconclusive") return "inconclusive";
   return "none";
 }
 
@@ -244,11 +232,14 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
             </Card>
             <MeasuredVsPredicted run={run} drift={drift} />
           </div>
-          <HarmonicsTable figures={figures} limitDbc={limitDbc} />
+          <div className="grid gap-5 lg:grid-cols-2">
+            <HarmonicsTable figures={figures} limitDbc={limitDbc} />
+            <SpursTable spurs={figures.spurs} />
+          </div>
         </>
       ) : null}
 
-      <Metadata run={run} figures={figures} context={context} />
+      <CaptureDetails run={run} figures={figures} context={context} />
     </div>
   );
 }
@@ -294,215 +285,3 @@ function ChartPlaceholder({ loading, error }: { loading: boolean; error: boolean
   );
 }
 
-function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFigures; drift: DriftAnalysis | null }) {
-  const f = formatWithUncertainty(figures.frequencyHz, figures.frequencyUncertaintyHz, "Hz");
-  const driftPpm = drift?.ppm ?? run.driftPpm;
-  const d = formatDriftLeading(driftPpm);
-  const thd = formatThd(figures.thdPercent === null ? null : figures.thdPercent / 100);
-  const amplitudeDbv = figures.fundamentalVpk ? 20 * Math.log10(figures.fundamentalVpk / Math.SQRT2) : null;
-  return (
-    <dl className="grid grid-cols-2 gap-3 lg:grid-cols-4">
-      <MetricTile label="Measured frequency" value={f.value} detail={f.uncertainty || "uncertainty not given"} className="col-span-2 lg:col-span-1" />
-      <MetricTile
-        label="Drift vs predicted"
-        value={d.main}
-        detail={d.detail}
-        note={run.snapshot.predictedHz ? `Predicted ${formatQuantity(run.snapshot.predictedHz, "Hz", 6)}` : "No prediction for these values"}
-      />
-      <MetricTile label="THD" value={thd.percent} detail={thd.db} note={figures.sinadDb !== null ? `SINAD ${formatDecibels(figures.sinadDb)}` : undefined} />
-      <MetricTile
-        label="Fundamental amplitude"
-        value={formatQuantity(figures.fundamentalVpk, "V", 4)}
-        detail={amplitudeDbv === null ? "peak" : `peak · ${formatDecibels(amplitudeDbv, "dBV")}`}
-        note={run.probeAttenuation !== 1 ? `Volts scaled ×${run.probeAttenuation} for the probe` : undefined}
-      />
-    </dl>
-  );
-}
-
-function MeasuredVsPredicted({ run, drift }: { run: RunData; drift: DriftAnalysis | null }) {
-  const s = run.snapshot;
-  const rows: Array<[string, string]> = [
-    ["Predicted f0", formatQuantity(s.predictedHz, "Hz", 6)],
-    ["Measured", formatQuantity(drift?.measuredHz ?? run.measuredHz, "Hz", 7)],
-    ["Difference", drift ? `${formatQuantity(drift.hz, "Hz", 4, { signed: true })} · ${formatPpm(drift.ppm)}` : DASH],
-    ["Worst-case band", formatRange(s.worstCase?.minHz, s.worstCase?.maxHz, "Hz", 5)],
-    ["Statistical band", formatRange(s.statistical?.minHz, s.statistical?.maxHz, "Hz", 5)],
-    ["Implied extra capacitance", formatSignedCapacitance(drift?.impliedExtraCapacitanceF ?? run.impliedExtraCapacitanceF)],
-  ];
-  const inBand =
-    drift && s.worstCase ? drift.measuredHz >= s.worstCase.minHz && drift.measuredHz <= s.worstCase.maxHz : null;
-  return (
-    <Card>
-      <CardHeader title="Measured vs predicted" description="From the as-built values snapshotted when the capture was logged." />
-      <CardBody className="space-y-3">
-        {s.predictedHz === null ? (
-          <p className="text-sm text-ink-soft">No prediction: {s.predictionError ?? "the as-built values could not be modelled."}</p>
-        ) : (
-          <>
-            <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-              {rows.map(([k, v]) => (
-                <div key={k} className="contents">
-                  <dt className="text-ink-soft">{k}</dt>
-                  <dd className="num text-right font-mono text-[13px] text-ink">{v}</dd>
-                </div>
-              ))}
-            </dl>
-            {inBand !== null ? (
-              <p className="text-sm text-ink-soft">
-                <span aria-hidden="true" className="mr-1">{inBand ? "✓" : "✕"}</span>
-                {inBand
-                  ? "Inside the worst-case tolerance band: part tolerances alone can explain the difference."
-                  : "Outside the worst-case tolerance band: part tolerances alone cannot explain the difference."}
-              </p>
-            ) : null}
-            {drift ? <p className="rounded-md bg-paper-sunk/60 px-3 py-2 text-sm leading-relaxed text-ink">{drift.explanation}</p> : null}
-          </>
-        )}
-      </CardBody>
-    </Card>
-  );
-}
-
-function HarmonicsTable({ figures, limitDbc }: { figures: RunFigures; limitDbc: number | null | undefined }) {
-  if (figures.harmonics.length === 0) return null;
-  return (
-    <section aria-labelledby="harmonics-heading" className="space-y-2">
-      <h2 id="harmonics-heading" className="text-sm font-semibold text-ink">
-        Harmonics
-      </h2>
-      <Table caption="Harmonic levels of this run">
-        <thead>
-          <tr>
-            <Th>Order</Th>
-            <Th className="text-right">Frequency</Th>
-            <Th className="hidden text-right sm:table-cell">Amplitude (peak)</Th>
-            <Th className="text-right">Level</Th>
-            {typeof limitDbc === "number" ? <Th>Against the limit</Th> : null}
-          </tr>
-        </thead>
-        <tbody>
-          {figures.harmonics.map((h) => {
-            const over = typeof limitDbc === "number" && h.dBc !== null ? h.dBc > limitDbc : null;
-            return (
-              <Tr key={h.order}>
-                <Td>{h.order}</Td>
-                <Td numeric className="whitespace-nowrap">{formatQuantity(h.frequencyHz, "Hz", 5)}</Td>
-                <Td numeric className="hidden whitespace-nowrap sm:table-cell">{formatQuantity(h.amplitudeVpk, "V", 3)}</Td>
-                <Td numeric className="whitespace-nowrap">{formatDecibels(h.dBc, "dBc")}</Td>
-                {typeof limitDbc === "number" ? (
-                  <Td>
-                    {over === null ? (
-                      DASH
-                    ) : (
-                      <VerdictBadge
-                        className="whitespace-nowrap"
-                        verdict={over ? "fail" : "pass"}
-                        label={`${over ? "Over" : "Under"} by ${Math.abs((h.dBc as number) - limitDbc).toFixed(1)} dB`}
-                      />
-                    )}
-                  </Td>
-                ) : null}
-              </Tr>
-            );
-          })}
-        </tbody>
-      </Table>
-    </section>
-  );
-}
-
-function Metadata({ run, figures, context }: { run: RunData; figures: RunFigures; context: RunContext }) {
-  const durationS = figures.samples !== null && figures.sampleRateHz ? figures.samples / figures.sampleRateHz : null;
-  const rows: Array<[string, string]> = [
-    ["File", run.originalFilename],
-    ["Size", formatBytes(run.sizeBytes)],
-    ["SHA-256", run.sha256],
-    ["Channel", run.channel ?? "first voltage column"],
-    ["Probe attenuation", `×${run.probeAttenuation}`],
-    ["Supply", run.supplyV === null ? DASH : formatQuantity(run.supplyV, "V", 3, { trimZeros: true })],
-    ["Temperature", run.temperatureC === null ? DASH : `${run.temperatureC} °C`],
-  ];
-  // Figures of the record itself exist only once it has been read.
-  if (run.status === "done") {
-    rows.push(
-      ["Sample rate", formatQuantity(figures.sampleRateHz, "Sa/s", 4, { trimZeros: true })],
-      ["Samples", figures.samples === null ? DASH : figures.samples.toLocaleString("en-GB")],
-      ["Record length", durationS === null ? DASH : formatQuantity(durationS, "s", 4)],
-      ["In-record drift", formatPpm(run.inRecordDriftPpm ?? figures.inRecordDriftPpm)],
-    );
-  }
-  rows.push(["Uploaded", `${formatDateTime(run.createdAt)} by ${run.createdByName}`]);
-  if (run.finishedAt) rows.push([run.status === "failed" ? "Tried" : "Analysed", formatDateTime(run.finishedAt, { seconds: true })]);
-  if (run.engineVersion) rows.push(["Engine version", run.engineVersion]);
-  if (typeof run.attempts === "number" && run.attempts > 1) rows.push(["Analysis attempts", String(run.attempts)]);
-  const parts = Object.entries(run.snapshot.parts);
-  const preamble = Object.entries(figures.metadata);
-  return (
-    <div className="grid gap-5 lg:grid-cols-2">
-      <Card>
-        <CardHeader title="Capture" />
-        <CardBody>
-          {run.note ? <p className="mb-3 whitespace-pre-wrap text-sm text-ink">{run.note}</p> : null}
-          <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-            {rows.map(([k, v]) => (
-              <div key={k} className="contents">
-                <dt className="text-ink-soft">{k}</dt>
-                <dd className={`num min-w-0 text-right font-mono text-[13px] text-ink ${k === "SHA-256" || k === "File" ? "break-all" : "break-words"}`}>{v}</dd>
-              </div>
-            ))}
-          </dl>
-        </CardBody>
-      </Card>
-      <div className="space-y-5">
-        <Card>
-          <CardHeader
-            title="As built at capture"
-            description={
-              <>
-                Snapshot of <Link className="underline underline-offset-2" href={`/builds/${context.buildId}`}>{context.buildLabel}</Link>,
-                design revision {run.snapshot.designRevision} ({run.snapshot.topology}).
-              </>
-            }
-          />
-          <CardBody>
-            <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-              {parts.map(([ref, part]) => (
-                <div key={ref} className="contents">
-                  <dt className="font-mono text-ink-soft">{ref}</dt>
-                  <dd className="num text-right font-mono text-[13px] text-ink">
-                    {formatPartValue(part.valueSi, partUnitOrBlank(run.snapshot.topology, ref))}
-                    {part.tolerance ? <span className="text-ink-faint"> ± {formatPercent(part.tolerance * 100, 2)}</span> : null}
-                  </dd>
-                </div>
-              ))}
-              {run.snapshot.extraCapacitanceF ? (
-                <div className="contents">
-                  <dt className="text-ink-soft">Extra C</dt>
-                  <dd className="num text-right font-mono text-[13px] text-ink">{formatPartValue(run.snapshot.extraCapacitanceF, "F")}</dd>
-                </div>
-              ) : null}
-            </dl>
-          </CardBody>
-        </Card>
-        <Card>
-          <CardHeader title="Preamble" description="Lines the scope wrote before the header row, as found in the file." />
-          <CardBody>
-            {preamble.length === 0 ? (
-              <p className="text-sm text-ink-soft">{run.status === "done" ? "The file has no preamble." : "Shown once the capture is analysed."}</p>
-            ) : (
-              <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-                {preamble.map(([k, v]) => (
-                  <div key={k} className="contents">
-                    <dt className="break-all text-ink-soft">{k}</dt>
-                    <dd className="break-all text-right font-mono text-[13px] text-ink">{v}</dd>
-                  </div>
-                ))}
-              </dl>
-            )}
-          </CardBody>
-        </Card>
-      </div>
-    </div>
-  );
-}

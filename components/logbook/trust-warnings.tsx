@@ -6,6 +6,9 @@ const look: Record<string, { title: string; icon: string }> = {
   "few-cycles": { title: "Few cycles in the record", icon: "⋯" },
   "low-oversampling": { title: "Few samples per cycle", icon: "⋮" },
   "in-record-drift": { title: "Frequency moved during the record", icon: "↗" },
+  "no-dominant-tone": { title: "No dominant tone", icon: "≈" },
+  "second-mode": { title: "Second mode", icon: "⋈" },
+  "sub-harmonic": { title: "Sub-harmonic", icon: "½" },
 };
 
 /** Why the figures may not be trusted, each with a word-title, an icon and the engine's sentence. */
@@ -14,7 +17,7 @@ export function TrustWarnings({ warnings }: { warnings: WarningRow[] }) {
     return (
       <p className="flex items-center gap-2 text-sm text-ink-soft">
         <span aria-hidden="true" className="font-semibold text-verdict-pass">✓</span>
-        No trust warnings: the record is steady, unclipped and long enough for these figures.
+        No trust warnings: one steady, unclipped tone, long enough for these figures.
       </p>
     );
   }

@@ -1,0 +1,113 @@
+import { MetricTile } from "./metric-tile";
+import { Card, CardBody, CardHeader } from "@/components/ui/card";
+import {
+  DASH,
+  formatDecibels,
+  formatDriftLeading,
+  formatPercent,
+  formatPpm,
+  formatQuantity,
+  formatRange,
+  formatSignedCapacitance,
+  formatThd,
+  formatWithUncertainty,
+} from "@/lib/format/numbers";
+import type { DriftAnalysis } from "@/lib/oscillator/drift";
+import type { RunFigures } from "./run-results";
+import type { RunData } from "./run-types";
+
+/** THD as the record supports it: a figure over the detected orders, "below its floor", or not measured with the reason. */
+function thdTile(figures: RunFigures): { value: string; detail: string; note?: string } {
+  const sinad = figures.sinadDb !== null ? `SINAD ${formatDecibels(figures.sinadDb)}` : undefined;
+  const t = figures.thd;
+  if (t?.status === "not-measurable") return { value: "Not measured", detail: t.note ?? "an order cannot be separated", note: sinad };
+  if (t?.status === "below-floor") return { value: `< ${formatPercent(t.floorPercent)}`, detail: "no harmonic above the noise", note: sinad };
+  const thd = formatThd(figures.thdPercent === null ? null : figures.thdPercent / 100);
+  if (figures.thdPercent === null) return { value: "Not measured", detail: "no THD figure for this capture", note: sinad };
+  const floor = t && t.floorPercent > 0 ? `; the rest under a ${formatPercent(t.floorPercent)} floor` : "";
+  const over = t && t.detectedOrders.length > 0 ? `over harmonic${t.detectedOrders.length > 1 ? "s" : ""} ${t.detectedOrders.join(", ")}${floor}` : "";
+  return { value: thd.percent, detail: [thd.db, over].filter(Boolean).join(" · "), note: sinad };
+}
+
+function uncertaintyNote(figures: RunFigures): string | undefined {
+  if (figures.frequencyNoiseHz === null) return "statistical; the scope's timebase is not in it";
+  if (figures.frequencyNoiseHz > 0) return `includes ${formatQuantity(figures.frequencyNoiseHz, "Hz", 2)} of oscillator frequency noise; not the scope's timebase`;
+  return "statistical; the scope's timebase is not in it";
+}
+
+export function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFigures; drift: DriftAnalysis | null }) {
+  const f = formatWithUncertainty(figures.frequencyHz, figures.frequencyUncertaintyHz, "Hz");
+  const driftPpm = drift?.ppm ?? run.driftPpm;
+  const d = formatDriftLeading(driftPpm);
+  const thd = thdTile(figures);
+  const amplitudeDbv = figures.fundamentalVpk ? 20 * Math.log10(figures.fundamentalVpk / Math.SQRT2) : null;
+  return (
+    <dl className="grid grid-cols-2 gap-3 lg:grid-cols-4">
+      <MetricTile
+        label="Measured frequency"
+        value={f.value}
+        detail={f.uncertainty ? `${f.uncertainty} (1σ)` : "uncertainty not given"}
+        note={uncertaintyNote(figures)}
+        className="col-span-2 lg:col-span-1"
+      />
+      <MetricTile
+        label="Drift vs predicted"
+        value={d.main}
+        detail={d.detail}
+        note={run.snapshot.predictedHz ? `Predicted ${formatQuantity(run.snapshot.predictedHz, "Hz", 6)}` : "No prediction for these values"}
+      />
+      <MetricTile label="THD" value={thd.value} detail={thd.detail} note={thd.note} />
+      <MetricTile
+        label="Fundamental amplitude"
+        value={formatQuantity(figures.fundamentalVpk, "V", 4)}
+        detail={amplitudeDbv === null ? "peak" : `peak · ${formatDecibels(amplitudeDbv, "dBV")}`}
+        note={run.probeAttenuation !== 1 ? `Volts scaled ×${run.probeAttenuation} for the probe` : undefined}
+      />
+    </dl>
+  );
+}
+
+export function MeasuredVsPredicted({ run, drift }: { run: RunData; drift: DriftAnalysis | null }) {
+  const s = run.snapshot;
+  const rows: Array<[string, string]> = [
+    ["Predicted f0", formatQuantity(s.predictedHz, "Hz", 6)],
+    ["Measured", formatQuantity(drift?.measuredHz ?? run.measuredHz, "Hz", 7)],
+    ["Difference", drift ? `${formatQuantity(drift.hz, "Hz", 4, { signed: true })} · ${formatPpm(drift.ppm)}` : DASH],
+    ["Worst-case band", formatRange(s.worstCase?.minHz, s.worstCase?.maxHz, "Hz", 5)],
+    ["Statistical band", formatRange(s.statistical?.minHz, s.statistical?.maxHz, "Hz", 5)],
+    ["Implied extra capacitance", formatSignedCapacitance(drift?.impliedExtraCapacitanceF ?? run.impliedExtraCapacitanceF)],
+  ];
+  const inBand =
+    drift && s.worstCase ? drift.measuredHz >= s.worstCase.minHz && drift.measuredHz <= s.worstCase.maxHz : null;
+  return (
+    <Card>
+      <CardHeader title="Measured vs predicted" description="From the as-built values snapshotted when the capture was logged." />
+      <CardBody className="space-y-3">
+        {s.predictedHz === null ? (
+          <p className="text-sm text-ink-soft">No prediction: {s.predictionError ?? "the as-built values could not be modelled."}</p>
+        ) : (
+          <>
+            <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+              {rows.map(([k, v]) => (
+                <div key={k} className="contents">
+                  <dt className="text-ink-soft">{k}</dt>
+                  <dd className="num text-right font-mono text-[13px] text-ink">{v}</dd>
+                </div>
+              ))}
+            </dl>
+            {inBand !== null ? (
+              <p className="text-sm text-ink-soft">
+                <span aria-hidden="true" className="mr-1">{inBand ? "✓" : "✕"}</span>
+                {inBand
+                  ? "Inside the worst-case tolerance band: part tolerances alone can explain the difference."
+                  : "Outside the worst-case tolerance band: part tolerances alone cannot explain the difference."}
+              </p>
+            ) : null}
+            {drift ? <p className="rounded-md bg-paper-sunk/60 px-3 py-2 text-sm leading-relaxed text-ink">{drift.explanation}</p> : null}
+          </>
+        )}
+      </CardBody>
+    </Card>
+  );
+}
+
