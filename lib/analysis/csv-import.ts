@@ -164,8 +164,9 @@ export class CaptureImporter {
     let startTimeS = 0;
     const timeColumn = this.columns.find((column) => column.kind === "time");
     if (timeColumn) {
-      const spanS = (rows.lastTime - rows.firstTime) * timeColumn.scaleToSi;
-      sampleRateHz = (samples - 1) / spanS;
+      // The least-squares slope, not the end points: stamps printed with few digits scatter about the line.
+      const fitted = rows.fittedIntervalInColumnUnit() * timeColumn.scaleToSi;
+      sampleRateHz = fitted > 0 ? 1 / fitted : (samples - 1) / ((rows.lastTime - rows.firstTime) * timeColumn.scaleToSi);
       startTimeS = rows.firstTime * timeColumn.scaleToSi;
     } else {
       sampleRateHz = 1 / (this.preambleIntervalS as number);

@@ -46,7 +46,17 @@ export class RowParser {
   lineNumber: number;
   firstTime = 0;
   lastTime = 0;
-  private firstSpacing = 0;
+  /**
+   * Sums for the least-squares line t = t₀ + i·Δt through every stamp (i the row index, t taken from
+   * the first stamp): Σi, Σt, Σi², Σi·t. Rounded stamps scatter about the line, which averages the
+   * rounding out where the end points alone would keep it.
+   */
+  private sumI = 0;
+  private sumT = 0;
+  private sumII = 0;
+  private sumIT = 0;
+  /** Printed precision of the last stamp: one unit of its last digit, in the column's own unit. */
+  private lastQuantum = 0;
   private readonly roles: Int32Array;
   private readonly scales: Float64Array;
   private readonly columnHeaders: string[];
@@ -124,6 +134,12 @@ export class RowParser {
     let count = this.count;
     let line = this.lineNumber;
     let previousTime = this.lastTime;
+    let previousQuantum = this.lastQuantum;
+    let timeQuantum = 0;
+    let sumI = this.sumI;
+    let sumT = this.sumT;
+    let sumII = this.sumII;
+    let sumIT = this.sumIT;
     let pos = start;
 
     while (pos < end) {
@@ -177,6 +193,8 @@ export class RowParser {
           }
           let mantissa = 0;
           let scale10 = 0;
+          // A stamp printed without a decimal point or exponent is taken as exact (a writer printing its full value).
+          let printedFraction = false;
           const integerStart = pos;
           let d = c - ZERO;
           while (d >= 0 && d <= 9) {
@@ -186,6 +204,7 @@ export class RowParser {
           let digits = pos - integerStart;
           c = bytes[pos];
           if (c === DOT || (c === COMMA && decimalComma)) {
+            printedFraction = true;
             const fractionStart = ++pos;
             d = bytes[pos] - ZERO;
             while (d >= 0 && d <= 9) {
@@ -201,6 +220,7 @@ export class RowParser {
             break;
           }
           if (c === LOWER_E || c === UPPER_E) {
+            printedFraction = true;
             c = bytes[++pos];
             let exponentNegative = false;
             if (c === MINUS) {
@@ -246,6 +266,7 @@ export class RowParser {
           while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++pos];
           if (role === TIME) {
             time = value;
+            timeQuantum = !printedFraction ? 0 : scale10 >= 0 ? pow10[scale10] : 1 / pow10[-scale10];
           } else {
             const volts = value * scales[column];
             // Out of bounds: let the slow path name the line and column.
@@ -284,6 +305,7 @@ export class RowParser {
         const parsed = this.slowRow(text, line);
         if (parsed === undefined) continue;
         time = parsed.time;
+        timeQuantum = parsed.timeQuantum;
         channels = this.channels;
         for (let k = 0; k < parsed.values.length; k++) channels[k][count] = parsed.values[k];
       }
@@ -292,15 +314,17 @@ export class RowParser {
           this.firstTime = time;
         } else {
           const spacing = time - previousTime;
-          if (!(spacing > 0)) {
-            this.rememberProgress(count, line, previousTime);
-            throw new CaptureImportError(
-              `time ${time} is not after the previous sample's ${previousTime}; time must be strictly increasing`,
-              line,
-            );
-          }
+          // Two stamps each rounded to half a unit of their last printed digit can differ from the
+          // true step by up to the sum of those halves.
+          const slack = 0.5 * (timeQuantum + previousQuantum);
           if (count === 1) {
-            this.firstSpacing = spacing;
+            if (!(spacing > 0)) {
+              this.rememberProgress(count, line, previousTime);
+              throw new CaptureImportError(
+                `time ${time} is not after the previous sample's ${previousTime}; time must be strictly increasing`,
+                line,
+              );
+            }
             // A subnormal step (1e-310 s) is a positive double whose reciprocal overflows to Infinity, and a
             // step near the largest double has a reciprocal of 0: neither is a sample rate the engine can use.
             const intervalS = spacing * this.timeScale;
@@ -311,19 +335,56 @@ export class RowParser {
                 line,
               );
             }
-          } else if (Math.abs(spacing - this.firstSpacing) > maxSpacingError * this.firstSpacing) {
-            throw new CaptureImportError(
-              `sample spacing ${spacing} differs from the first spacing ${this.firstSpacing} by more than 1%; ` +
-                "the samples must be evenly spaced",
-              line,
-            );
+          } else {
+            const expected = (previousTime - this.firstTime) / (count - 1);
+            if (!(spacing > 0) && !(spacing > -slack && expected <= 2 * slack)) {
+              this.rememberProgress(count, line, previousTime);
+              throw new CaptureImportError(
+                `time ${time} is not after the previous sample's ${previousTime}; time must be strictly increasing`,
+                line,
+              );
+            }
+            if (Math.abs(spacing - expected) > maxSpacingError * expected + slack) {
+              this.rememberProgress(count, line, previousTime);
+              throw new CaptureImportError(
+                `sample spacing ${spacing} differs from the record's mean spacing ${expected.toPrecision(6)} by more than 1%` +
+                  (slack > 0 ? ` plus the stamps' printed precision (±${slack.toPrecision(2)})` : "") +
+                  ": a missing row or a restarted time base? The samples must be evenly spaced",
+                line,
+              );
+            }
           }
+          const t = time - this.firstTime;
+          sumI += count;
+          sumT += t;
+          sumII += count * count;
+          sumIT += count * t;
         }
         previousTime = time;
+        previousQuantum = timeQuantum;
       }
       count++;
     }
+    this.sumI = sumI;
+    this.sumT = sumT;
+    this.sumII = sumII;
+    this.sumIT = sumIT;
+    this.lastQuantum = previousQuantum;
     this.rememberProgress(count, line, previousTime);
+  }
+
+  /**
+   * Sample interval in the time column's unit from the least-squares line through every stamp
+   * (the first stamp sits at i = 0, t = 0, so it enters the sums as zeros).
+   */
+  fittedIntervalInColumnUnit(): number {
+    const n = this.count;
+    if (n < 2) return Number.NaN;
+    const meanI = this.sumI / n;
+    const meanT = this.sumT / n;
+    const sxx = this.sumII - n * meanI * meanI;
+    const sxy = this.sumIT - n * meanI * meanT;
+    return sxy / sxx;
   }
 
   private rememberProgress(count: number, line: number, lastTime: number): void {
@@ -343,7 +404,7 @@ export class RowParser {
    * Reads one row the fast path could not, or explains why it is bad.
    * @returns undefined for a blank line, else the time and the scaled channel values
    */
-  private slowRow(text: string, line: number): { time: number; values: number[] } | undefined {
+  private slowRow(text: string, line: number): { time: number; timeQuantum: number; values: number[] } | undefined {
     if (text.trim() === "") return undefined;
     if (CONTROL_CHARACTER.test(text)) {
       throw new CaptureImportError("binary content: control bytes in a data row, so this is not a text CSV", line);
@@ -361,6 +422,7 @@ export class RowParser {
       );
     }
     let time = 0;
+    let timeQuantum = 0;
     const values: number[] = [];
     for (let column = 0; column < columnCount; column++) {
       const role = this.roles[column];
@@ -377,6 +439,7 @@ export class RowParser {
       if (!Number.isFinite(value)) throw new CaptureImportError(`'${cell}' is out of range in column ${header}`, line);
       if (role === ROLE_TIME) {
         time = value;
+        timeQuantum = printedQuantum(normalised);
       } else {
         const volts = value * this.scales[column];
         if (!(Math.abs(volts) <= MAX_ABS_VOLTS)) {
@@ -388,6 +451,15 @@ export class RowParser {
         values[role] = volts;
       }
     }
-    return { time, values };
+    return { time, timeQuantum, values };
   }
+}
+
+/** One unit of the last printed digit of a number's text: "1.2340e-3" → 1e-7; 0 for a plain integer ("49"), taken as exact. */
+function printedQuantum(text: string): number {
+  const match = /^[+-]?(\d*)(?:\.(\d*))?(?:[eE]([+-]?\d+))?$/.exec(text.trim());
+  if (!match || (match[2] === undefined && match[3] === undefined)) return 0;
+  const decimals = match[2]?.length ?? 0;
+  const exponent = match[3] ? Number(match[3]) : 0;
+  return 10 ** (exponent - decimals);
 }

@@ -130,8 +130,19 @@ describe("importCapture rejections", () => {
 
   it("rejects sample spacing irregular by more than 1 %", () => {
     const error = rejection(`Time (s),Out (V)\n${rows(100, (i) => `${i + (i >= 50 ? 0.02 : 0)},0`)}`);
-    expect(error.message).toMatch(/^line 52: sample spacing 1\.02\d* differs from the first spacing 1 by more than 1%/);
+    expect(error.message).toMatch(/^line 52: sample spacing 1\.02\d* differs from the record's mean spacing 1\.00000 by more than 1% plus the stamps' printed precision \(±0\.0050\): a missing row or a restarted time base\?/);
     expect(() => importCapture(`t,v\n${rows(100, (i) => `${i + (i % 2) * 0.004},0`)}`)).not.toThrow();
+  });
+
+  it("accepts stamps rounded to 7 significant digits (a least-squares line recovers the rate) and still names a missing row", () => {
+    // 1 MS/s starting at 12.3456789 ms: printed with 7 significant digits the steps read 0, 1 or 2 × 10⁻⁹ s off.
+    const t0 = 0.0123456789;
+    const stamped = (i: number) => (t0 + i * 1e-6).toPrecision(7);
+    const capture = importCapture(`Time (s),Out (V)\n${rows(5000, (i) => `${stamped(i)},${Math.sin(i / 7).toFixed(6)}`)}`);
+    expect(Math.abs(capture.sampleRateHz / 1e6 - 1)).toBeLessThan(1e-6);
+    const gap = rejection(`Time (s),Out (V)\n${rows(5000, (i) => `${stamped(i < 3000 ? i : i + 1)},${Math.sin(i / 7).toFixed(6)}`)}`);
+    expect(gap.line).toBe(3002);
+    expect(gap.message).toMatch(/a missing row or a restarted time base/);
   });
 
   it("rejects a subnormal time step, whose sample rate would overflow to Infinity", () => {
