@@ -10,6 +10,7 @@ import {
   TOPOLOGY_PARTS,
   buildDesignReport,
   formatEngineering,
+  limitProblem,
   parseTempco,
   parseTolerance,
   parseValue,
@@ -133,11 +134,14 @@ function parseArgs(argv: string[]): Parsed {
         out.extra = take(token);
         break;
       case "--measured":
-        out.measuredHz = parseValue(take(token), "Hz");
+      case "--target": {
+        const hz = parseValue(take(token), "Hz");
+        const problem = limitProblem("frequencyHz", hz, token === "--measured" ? "--measured" : "--target");
+        if (problem) throw new UsageError(problem);
+        if (token === "--measured") out.measuredHz = hz;
+        else out.targetHz = hz;
         break;
-      case "--target":
-        out.targetHz = parseValue(take(token), "Hz");
-        break;
+      }
       case "--series": {
         const s = take(token).toUpperCase();
         if (!E_SERIES_NAMES.includes(s as ESeriesName)) throw new UsageError(`--series must be one of ${E_SERIES_NAMES.join(", ")}; got "${s}"`);
@@ -158,7 +162,11 @@ function parseArgs(argv: string[]): Parsed {
         if (text.trim() === "" || !Number.isFinite(n)) throw new UsageError(`${token} needs a number; got "${text}"`);
         if (token === "--seed") out.seed = n;
         else if (token === "--trials") out.trials = n;
-        else out.deltaTK = n;
+        else {
+          const problem = limitProblem("temperatureChangeK", n, "--delta-t (the temperature change from 25 °C)");
+          if (problem) throw new UsageError(problem);
+          out.deltaTK = n;
+        }
         break;
       }
       case "--tol":
@@ -268,6 +276,7 @@ function humanReport(parsed: Parsed, report: DesignReport, temperature?: Tempera
   } else {
     out.push("  no tolerances given (add --tol C=5% L=10%) so there is no band");
   }
+  if (report.bandWarning) out.push(wrap(`warning: ${report.bandWarning}`, "  "));
   if (temperature) {
     out.push(
       `Temperature ${signed(String(temperature.temperatureChangeK))} K: f0 ${eng(temperature.shiftedHz, "Hz")} ` +
@@ -293,11 +302,13 @@ function humanReport(parsed: Parsed, report: DesignReport, temperature?: Tempera
       ? `change ${r.part} ${part(r.fromSi, r.unit)} -> ${part(r.toSi, r.unit)}`
       : `keep ${r.part} at ${part(r.fromSi, r.unit)}: no single ${r.series} value comes closer`;
     out.push(`Retune to ${given(r.targetHz, "Hz")} (${r.series}, ${basis}): ${change}`);
+    if (!r.reachable && r.unreachableReason) out.push(wrap(`cannot be reached: ${r.unreachableReason}`, "  "));
     if (r.idealSi !== null) out.push(`  exact value for the target would be ${eng(r.idealSi, r.unit, 4)}`);
     out.push(`  predicted ${eng(r.predictedHz, "Hz")} (${percentOf(r.predictedHz, r.targetHz)} from target)`);
     if (r.changed && r.feedbackFraction !== null && r.minGain !== null && r.feedbackFraction !== report.feedbackFraction) {
       out.push(`  feedback fraction becomes ${r.feedbackFraction.toPrecision(4)} (minimum start-up gain ${r.minGain.toPrecision(4)})`);
     }
+    if (r.changed && r.startupWarning) out.push(wrap(`warning: ${r.startupWarning}`, "  "));
     if (w.corners > 1) {
       out.push(`  worst case ${eng(r.worstCase.minHz, "Hz")} to ${eng(r.worstCase.maxHz, "Hz")}, statistical ${eng(r.statistical.minHz, "Hz")} to ${eng(r.statistical.maxHz, "Hz")}`);
     }

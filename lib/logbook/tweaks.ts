@@ -5,7 +5,9 @@ import * as q from "@/db/queries/tweaks";
 import { requirePermission } from "@/lib/auth/require-permission";
 import { BadRequestError, ConflictError, NotFoundError } from "@/lib/errors";
 import { zodFields } from "@/lib/http/problem";
+import { designProblemsByField } from "@/lib/validations/design";
 import { tweakInputSchemaFor } from "@/lib/validations/tweak";
+import { oscillatorDesign } from "./prediction";
 import { audit, isId, type Actor } from "./context";
 
 /**
@@ -32,11 +34,17 @@ export async function logTweak(actor: Actor, buildId: string, raw: unknown, opti
     if (input.partRef) {
       const before = locked.asBuilt[input.partRef];
       fromValue = before?.valueSi ?? null;
-      if (!input.planned) {
-        // A part the design leaves optional (Hartley's M or k) takes no tolerance until someone gives one.
-        const asBuilt = { ...locked.asBuilt, [input.partRef]: { ...(before ?? {}), valueSi: input.toValue as number } };
-        await updateBuildAsBuilt(buildId, asBuilt, trx);
+      // A part the design leaves optional (Hartley's M or k) takes no tolerance until someone gives one.
+      const asBuilt = { ...locked.asBuilt, [input.partRef]: { ...(before ?? {}), valueSi: input.toValue as number } };
+      // The value alone may be plausible while the build it makes is not (C2 ×1000 leaves β = C1/C2 at 10⁻³): a
+      // planned tweak is checked too, so nothing unbuildable is logged to try.
+      // Only what this part causes: a value stored before the limits existed must not block the tweak that fixes it.
+      const fields = designProblemsByField(oscillatorDesign(design.topology, asBuilt, design.revision.extraCapacitanceF, design.revision.windings));
+      const problems = [...(fields[`parts.${input.partRef}.value`] ?? []), ...(fields.parts ?? [])];
+      if (problems.length > 0) {
+        throw new BadRequestError("The tweak needs fixing.", { toValue: problems.map((p) => p.charAt(0).toUpperCase() + p.slice(1) + ".") });
       }
+      if (!input.planned) await updateBuildAsBuilt(buildId, asBuilt, trx);
     }
     const tweak = await q.createTweak(
       { buildId, partRef: input.partRef, fromValue, toValue: input.toValue, note: input.note, planned: input.planned, createdBy: user.id, createdAt: options.at },

@@ -3,6 +3,9 @@
  * The web layer wraps {@link validateDesign} in its zod schema; the CLI and the library call it directly.
  */
 
+import { limitProblem } from "./limits";
+import { formatEngineering } from "./units";
+
 export type Topology = "tank" | "colpitts" | "hartley" | "clapp";
 
 export const TOPOLOGIES: readonly Topology[] = ["tank", "colpitts", "hartley", "clapp"];
@@ -107,26 +110,48 @@ function partProblems(ref: string, part: unknown, role: PartRole): string[] {
     if (!isFiniteNumber(p.valueSi) || p.valueSi < 0 || p.valueSi > 1) {
       problems.push(`part ${ref} (coupling coefficient) must be a number from 0 to 1; got ${describe(p.valueSi)}`);
     }
-  } else if (ref === "M") {
-    if (!isFiniteNumber(p.valueSi) || p.valueSi < 0) {
-      problems.push(`part M (mutual inductance) must be a finite number of H, 0 or above; got ${describe(p.valueSi)}`);
-    }
-  } else if (!isFiniteNumber(p.valueSi) || p.valueSi <= 0) {
-    problems.push(`part ${ref} (${role.description}) must be a finite number above 0${unitText}; got ${describe(p.valueSi)}`);
+  } else if (!isFiniteNumber(p.valueSi)) {
+    problems.push(`part ${ref} (${role.description}) must be a finite number${unitText}; got ${describe(p.valueSi)}`);
+  } else {
+    const limit = ref === "M" ? "mutualInductanceH" : role.kind === "inductance" ? "inductanceH" : "capacitanceF";
+    const problem = limitProblem(limit, p.valueSi, `part ${ref} (${role.description})`);
+    if (problem) problems.push(problem);
   }
-  if (p.tolerance !== undefined && (!isFiniteNumber(p.tolerance) || p.tolerance < 0 || p.tolerance >= 1)) {
-    problems.push(`part ${ref} tolerance must be a fraction from 0 to below 1 (0.05 = 5 %); got ${describe(p.tolerance)}`);
+  if (p.tolerance !== undefined) {
+    const problem = isFiniteNumber(p.tolerance)
+      ? limitProblem("tolerance", p.tolerance, `part ${ref} tolerance`)
+      : `part ${ref} tolerance must be a fraction (0.05 = 5 %); got ${describe(p.tolerance)}`;
+    if (problem) problems.push(problem);
   }
-  if (p.tempcoPpmPerK !== undefined && !isFiniteNumber(p.tempcoPpmPerK)) {
-    problems.push(`part ${ref} tempcoPpmPerK must be a finite number; got ${describe(p.tempcoPpmPerK)}`);
+  if (p.tempcoPpmPerK !== undefined) {
+    const problem = isFiniteNumber(p.tempcoPpmPerK)
+      ? limitProblem("tempcoPpmPerK", p.tempcoPpmPerK, `part ${ref} tempco`)
+      : `part ${ref} tempcoPpmPerK must be a finite number; got ${describe(p.tempcoPpmPerK)}`;
+    if (problem) problems.push(problem);
   }
-  if (
-    p.tempcoSpreadPpmPerK !== undefined &&
-    (!isFiniteNumber(p.tempcoSpreadPpmPerK) || p.tempcoSpreadPpmPerK < 0)
-  ) {
-    problems.push(`part ${ref} tempcoSpreadPpmPerK must be a finite number, 0 or above; got ${describe(p.tempcoSpreadPpmPerK)}`);
+  if (p.tempcoSpreadPpmPerK !== undefined) {
+    const problem = isFiniteNumber(p.tempcoSpreadPpmPerK)
+      ? limitProblem("tempcoSpreadPpmPerK", p.tempcoSpreadPpmPerK, `part ${ref} tempco spread`)
+      : `part ${ref} tempcoSpreadPpmPerK must be a finite number, 0 or above; got ${describe(p.tempcoSpreadPpmPerK)}`;
+    if (problem) problems.push(problem);
   }
   return problems;
+}
+
+/**
+ * The feedback fraction of the nominal values, for the plausibility check only (topologies.ts holds the model and
+ * its sources; it imports this file, so the two formulas are repeated here rather than imported).
+ */
+function nominalFeedbackFraction(topology: Topology, parts: Record<string, PartSpec>, windings: unknown): number | null {
+  if (topology === "colpitts" || topology === "clapp") return parts.C1.valueSi / parts.C2.valueSi;
+  if (topology !== "hartley") return null;
+  const l1 = parts.L1.valueSi;
+  const l2 = parts.L2.valueSi;
+  const full = Math.sqrt(l1 * l2);
+  const m = parts.M !== undefined ? Math.min(parts.M.valueSi, full) : parts.k !== undefined ? Math.min(parts.k.valueSi, 1) * full : 0;
+  const signed = windings === "opposing" ? -m : m;
+  const beta = (l2 + signed) / (l1 + signed);
+  return beta > 0 ? beta : null;
 }
 
 /**
@@ -173,7 +198,7 @@ export function validateDesign(value: unknown): string[] {
     if (problems.length === 0 && isFiniteNumber(l1) && isFiniteNumber(l2)) {
       const mMax = Math.sqrt(l1 * l2);
       if (isFiniteNumber(m) && m > mMax * (1 + 1e-12)) {
-        problems.push(`part M must not exceed √(L1·L2) = ${mMax} H (coupling k = 1); got ${m}`);
+        problems.push(`part M must not exceed √(L1·L2) = ${formatEngineering(mMax, "H", 4)} (coupling k = 1); got ${formatEngineering(m, "H", 4)}`);
       }
       const mUsed = isFiniteNumber(m) ? m : isFiniteNumber(k) ? k * mMax : 0;
       if (d.windings === "opposing" && l1 + l2 - 2 * mUsed <= 0) {
@@ -184,8 +209,20 @@ export function validateDesign(value: unknown): string[] {
     problems.push(`windings applies to hartley only; ${topology} has one inductor`);
   }
 
-  if (d.extraCapacitanceF !== undefined && (!isFiniteNumber(d.extraCapacitanceF) || d.extraCapacitanceF < 0)) {
-    problems.push(`extraCapacitanceF must be a finite number of F, 0 or above; got ${describe(d.extraCapacitanceF)}`);
+  if (d.extraCapacitanceF !== undefined) {
+    const problem = isFiniteNumber(d.extraCapacitanceF)
+      ? limitProblem("extraCapacitanceF", d.extraCapacitanceF, "extraCapacitanceF (the extra capacitance)")
+      : `extraCapacitanceF must be a finite number of F, 0 or above; got ${describe(d.extraCapacitanceF)}`;
+    if (problem) problems.push(problem);
+  }
+  if (problems.length === 0) {
+    const beta = nominalFeedbackFraction(topology, parts as Record<string, PartSpec>, d.windings);
+    // An infinite Hartley β (opposing windings with M = L1) is the model's own edge case, not a typo.
+    const problem = beta === null || !Number.isFinite(beta) ? null : limitProblem("feedbackFraction", beta, "the feedback fraction β");
+    if (problem) {
+      const which = topology === "hartley" ? "(L2+M)/(L1+M)" : "C1/C2";
+      problems.push(`${problem} (β = ${which}; the amplifier would need a gain of ${Number((1 / beta!).toPrecision(3))} to start)`);
+    }
   }
   if (d.calibrationCapacitanceF !== undefined && !isFiniteNumber(d.calibrationCapacitanceF)) {
     problems.push(`calibrationCapacitanceF must be a finite number of F; got ${describe(d.calibrationCapacitanceF)}`);

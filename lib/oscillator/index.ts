@@ -48,6 +48,7 @@ export {
 } from "./e-series";
 export {
   frequencySensitivities,
+  invalidCornersText,
   rssBand,
   seededRandom,
   statisticalBand,
@@ -68,3 +69,13 @@ export {
 } from "./drift";
 export { retunableParts, solvePartValue, suggestRetune, type RetuneOptions, type RetuneSuggestion } from "./retune";
 export { buildDesignReport, type DesignReport, type ReportOptions } from "./report";
+export {
+  LIMITS,
+  REFERENCE_TEMPERATURE_C,
+  assertWithinLimit,
+  describeLimit,
+  formatLimitValue,
+  limitProblem,
+  type LimitName,
+  type QuantityLimit,
+} from "./limits";

@@ -6,7 +6,7 @@ import type { OscillatorDesign } from "./design";
 import { analyseDrift, type DriftAnalysis } from "./drift";
 import type { ESeriesName } from "./e-series";
 import { suggestRetune, type RetuneSuggestion } from "./retune";
-import { rssBand, statisticalBand, worstCaseBand, type RssBand, type StatisticalBand, type StatisticalOptions, type WorstCaseBand } from "./tolerance";
+import { invalidCornersText, rssBand, statisticalBand, worstCaseBand, type RssBand, type StatisticalBand, type StatisticalOptions, type WorstCaseBand } from "./tolerance";
 import { predictOscillator, type OscillatorPrediction } from "./topologies";
 
 export interface ReportOptions {
@@ -28,11 +28,16 @@ export interface DesignReport {
   feedbackFraction: number | null;
   minGain: number | null;
   assumptions: string;
-  worstCase: Pick<WorstCaseBand, "minHz" | "maxHz" | "corners">;
+  worstCase: Pick<WorstCaseBand, "minHz" | "maxHz" | "corners" | "invalidCorners" | "invalidReason">;
   statistical: StatisticalBand;
   rss: RssBand;
   drift?: Omit<DriftAnalysis, "predictedHz">;
   retune?: Omit<RetuneSuggestion, "design">;
+  /**
+   * Set when some tolerance corners make the model invalid (the nominal prediction above still holds): what
+   * happened and what it means for the bands. Null otherwise.
+   */
+  bandWarning: string | null;
 }
 
 /**
@@ -56,9 +61,10 @@ export function buildDesignReport(design: OscillatorDesign, options: ReportOptio
     feedbackFraction: prediction.feedbackFraction,
     minGain: prediction.minGain,
     assumptions: prediction.assumptions,
-    worstCase: { minHz: worst.minHz, maxHz: worst.maxHz, corners: worst.corners },
+    worstCase: { minHz: worst.minHz, maxHz: worst.maxHz, corners: worst.corners, invalidCorners: worst.invalidCorners, invalidReason: worst.invalidReason },
     statistical: statisticalBand(design, options.statistical),
     rss: rssBand(design),
+    bandWarning: invalidCornersText(worst),
   };
   if (options.measuredHz !== undefined) {
     const { predictedHz: _predicted, ...drift } = analyseDrift(design, options.measuredHz);

@@ -18,6 +18,34 @@ export interface WorstCaseBand extends FrequencyBand {
   minCorner: Record<string, number>;
   /** Part values at the highest-frequency corner, SI units. */
   maxCorner: Record<string, number>;
+  /**
+   * Corners where the model has no tank at all (a Hartley with opposing windings whose L1 + L2 − 2M reaches 0, or
+   * a calibration that leaves C_eff at or below 0). They are left out of min and max, so the band is then only
+   * over the corners that exist; 0 when every corner is a tank.
+   */
+  invalidCorners: number;
+  /** The model's reason at the first such corner, null when there is none. */
+  invalidReason: string | null;
+}
+
+/** f0 at one set of values, or the model's reason why those values are no tank. */
+function tryFrequency(design: OscillatorDesign, values: Record<string, number>): { hz: number } | { reason: string } {
+  try {
+    const hz = frequencyOf(design, values);
+    return Number.isFinite(hz) ? { hz } : { reason: `f0 is not finite (${hz})` };
+  } catch (error) {
+    if (!(error instanceof RangeError)) throw error;
+    return { reason: error.message };
+  }
+}
+
+/** A sentence for a band that had to leave corners out: what happened, for the page and the command. */
+export function invalidCornersText(band: Pick<WorstCaseBand, "invalidCorners" | "corners" | "invalidReason">): string | null {
+  if (band.invalidCorners === 0) return null;
+  return (
+    `${band.invalidCorners} of ${band.corners} tolerance corners make the model invalid (${band.invalidReason}); ` +
+    "the bands cover only the corners that are a tank, so parts near those corners may not oscillate as modelled"
+  );
 }
 
 function frequencyOf(design: OscillatorDesign, values: Record<string, number>): number {
@@ -49,6 +77,8 @@ export function worstCaseBand(design: OscillatorDesign): WorstCaseBand {
     corners: 2 ** refs.length,
     minCorner: { ...nominal },
     maxCorner: { ...nominal },
+    invalidCorners: 0,
+    invalidReason: null,
   };
   for (let mask = 0; mask < band.corners; mask++) {
     const values = { ...nominal };
@@ -56,7 +86,13 @@ export function worstCaseBand(design: OscillatorDesign): WorstCaseBand {
       const t = design.parts[ref].tolerance as number;
       values[ref] = nominal[ref] * (mask & (1 << i) ? 1 + t : 1 - t);
     });
-    const f = frequencyOf(design, values);
+    const result = tryFrequency(design, values);
+    if ("reason" in result) {
+      band.invalidCorners++;
+      band.invalidReason ??= result.reason;
+      continue;
+    }
+    const f = result.hz;
     if (f < band.minHz) {
       band.minHz = f;
       band.minCorner = values;
@@ -167,6 +203,8 @@ export interface StatisticalBand extends FrequencyBand {
   coverage: number;
   meanHz: number;
   stdDevHz: number;
+  /** Simulated builds the model could not evaluate (no tank at those values); left out of the band. */
+  invalidTrials: number;
 }
 
 /**
@@ -195,7 +233,8 @@ export function statisticalBand(design: OscillatorDesign, options: StatisticalOp
   const random = seededRandom(seed);
   const nominal = nominalValues(design);
   const refs = tolerancedRefs(design);
-  const samples = new Float64Array(trials);
+  const drawn = new Float64Array(trials);
+  let valid = 0;
   let sum = 0;
   for (let i = 0; i < trials; i++) {
     const values = { ...nominal };
@@ -205,10 +244,15 @@ export function statisticalBand(design: OscillatorDesign, options: StatisticalOp
       while (Math.abs(z) > 3);
       values[ref] = nominal[ref] * (1 + (z / 3) * (design.parts[ref].tolerance as number));
     }
-    samples[i] = frequencyOf(design, values);
-    sum += samples[i];
+    const result = tryFrequency(design, values);
+    if ("reason" in result) continue;
+    drawn[valid++] = result.hz;
+    sum += result.hz;
   }
-  const meanHz = sum / trials;
+  // The nominal values are a tank (validated above), so a run where every draw failed still has one figure.
+  const samples = valid > 0 ? drawn.slice(0, valid) : Float64Array.of(frequencyOf(design, nominal));
+  const count = samples.length;
+  const meanHz = valid > 0 ? sum / valid : samples[0];
   let squares = 0;
   for (const f of samples) squares += (f - meanHz) ** 2;
   samples.sort();
@@ -220,6 +264,7 @@ export function statisticalBand(design: OscillatorDesign, options: StatisticalOp
     trials,
     coverage,
     meanHz,
-    stdDevHz: Math.sqrt(squares / (trials - 1)),
+    stdDevHz: count > 1 ? Math.sqrt(squares / (count - 1)) : 0,
+    invalidTrials: trials - valid,
   };
 }

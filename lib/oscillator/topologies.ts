@@ -11,6 +11,7 @@ import {
   type Topology,
   type WindingSense,
 } from "./design";
+import { formatEngineering } from "./units";
 
 /** Text for the UI: what each model assumes, and which capacitor or winding is which. */
 export const TOPOLOGY_ASSUMPTIONS: Record<Topology, string> = {
@@ -51,6 +52,11 @@ export interface TankModel {
   minGain: number | null;
 }
 
+/** A value for a message: engineering notation with the unit when finite ("-120 nH"), else as JavaScript prints it. */
+function shown(value: number, unit: string): string {
+  return Number.isFinite(value) ? formatEngineering(value, unit, 4, { trimZeros: true }) : String(value);
+}
+
 /**
  * f0 = 1/(2π√(LC)).
  *
@@ -61,10 +67,10 @@ export interface TankModel {
  */
 export function resonantFrequencyHz(inductanceH: number, capacitanceF: number): number {
   if (!(Number.isFinite(inductanceH) && inductanceH > 0)) {
-    throw new RangeError(`effective inductance must be a finite number above 0 H; got ${inductanceH}`);
+    throw new RangeError(`effective inductance must be a finite number above 0 H; got ${shown(inductanceH, "H")}`);
   }
   if (!(Number.isFinite(capacitanceF) && capacitanceF > 0)) {
-    throw new RangeError(`effective capacitance must be a finite number above 0 F; got ${capacitanceF}`);
+    throw new RangeError(`effective capacitance must be a finite number above 0 F; got ${shown(capacitanceF, "F")}`);
   }
   return 1 / (2 * Math.PI * Math.sqrt(inductanceH * capacitanceF));
 }

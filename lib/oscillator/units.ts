@@ -3,6 +3,7 @@
  *
  * Accepted forms (see REFERENCES.md §5):
  * - SI: `4.7n`, `4.7 nF`, `470p`, `10u`, `10µH` (µ U+00B5 or μ U+03BC), `1.5 MHz`, `2.2k`, `1e-9`, `-3 pF`.
+ * - a decimal comma as the CSV importer reads it: `4,7nF`, `1,5 MHz` (never `4,700`, which is ambiguous);
  * - IEC 60062 letter-and-digit (RKM) code: `4n7`, `2u2`, `R47`, `1k5`, `47K3`, `470R`, `p68`, `1µ0`, `4M7`, `5L6` (mΩ).
  * Deliberately refused:
  * - prefixes outside f…T (`4.7q` is quecto in SI, but no part is 10⁻³⁰ of anything: it is a typo);
@@ -66,6 +67,22 @@ function normalise(text: string): string {
     .replace(/[\u00a0\u2009\u202f]/g, " ")
     .replace(/\u2212/g, "-")
     .trim();
+}
+
+/**
+ * A decimal comma, as the CSV importer takes it ("4,7nF" is 4.7 nF): one comma between digits, no point. A comma
+ * followed by exactly three digits ("4,700 pF") is refused, since it reads as 4700 to some and 4.7 to others.
+ */
+function decimalComma(original: string, s: string): string {
+  if (!s.includes(",")) return s;
+  const m = /^([+-]?\d*),(\d+)/.exec(s);
+  if (!m || s.includes(".") || s.indexOf(",") !== s.lastIndexOf(",")) {
+    throw notAValue(original, "a comma is read as the decimal mark, once, between digits (4,7n); write 4,7n or 4.7n");
+  }
+  if (m[2].length === 3 && m[1].replace(/^[+-]/, "") !== "" && m[1].replace(/^[+-]/, "") !== "0") {
+    throw notAValue(original, `the comma could be a decimal mark or a thousands separator; write ${m[1]}.${m[2]} or ${m[1]}${m[2]}`);
+  }
+  return s.replace(",", ".");
 }
 
 /** Builds the double nearest the decimal digits × 10^exponent, without the rounding of 4.7 * 1e-9. */
@@ -134,7 +151,7 @@ function checkPlausible(original: string, exponent: number, letter: string, unit
 export function parseValue(text: string, expectedUnit?: QuantityUnit): number {
   if (typeof text !== "string") throw new TypeError(`a value must be text; got ${typeof text}`);
   const original = text;
-  const s = normalise(text);
+  const s = decimalComma(original, normalise(text));
   if (s === "") throw new RangeError("an empty text is not a value");
 
   // RKM: the letter sits where the decimal point goes, with digits after it (4n7, R47, p68, 47K3, 1µ0).
@@ -244,7 +261,7 @@ const TOLERANCE_LETTER: Record<string, number> = { F: 0.01, G: 0.02, J: 0.05, K:
  */
 export function parseTolerance(text: string): number {
   if (typeof text !== "string") throw new TypeError(`a tolerance must be text; got ${typeof text}`);
-  const s = normalise(text);
+  const s = normalise(text).replace(/(\d),(\d)/, "$1.$2");
   if (s in TOLERANCE_LETTER) return TOLERANCE_LETTER[s];
   if (/^[BCD]$/.test(s)) {
     throw new RangeError(`"${text}" is not a tolerance Tankbook reads: on small capacitors ${s} is an absolute pF tolerance; write it in % instead`);

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { parseTempco, parseTolerance, parseValue, type QuantityUnit } from "@/lib/oscillator";
+import { withinLimit } from "./limits";
 
 // Building blocks shared by the logbook schemas. Forms send text, the API may send numbers; both land here.
 
@@ -75,8 +76,8 @@ export const toleranceField = z.preprocess(
     .union([z.number(), z.string()])
     .transform((value, ctx) => {
       if (typeof value === "number") {
-        if (!(value >= 0 && value < 1)) {
-          ctx.addIssue({ code: "custom", message: `A tolerance given as a number is a fraction from 0 to below 1 (0.05 = 5 %); got ${value}.` });
+        if (!Number.isFinite(value)) {
+          ctx.addIssue({ code: "custom", message: `A tolerance given as a number is a fraction (0.05 = 5 %); got ${value}.` });
           return z.NEVER;
         }
         return value;
@@ -88,6 +89,7 @@ export const toleranceField = z.preprocess(
         return z.NEVER;
       }
     })
+    .superRefine(withinLimit("tolerance", "the tolerance"))
     .optional(),
 );
 
@@ -110,6 +112,10 @@ export const tempcoField = z.preprocess(
         ctx.addIssue({ code: "custom", message: err instanceof Error ? err.message : "This is not a tempco." });
         return z.NEVER;
       }
+    })
+    .superRefine((t, ctx) => {
+      withinLimit("tempcoPpmPerK", "the tempco")(t.ppmPerK, ctx);
+      withinLimit("tempcoSpreadPpmPerK", "the tempco spread")(t.spreadPpmPerK, ctx);
     })
     .optional(),
 );

@@ -2,6 +2,7 @@ import { z } from "zod";
 import { TOPOLOGIES, TOPOLOGY_PARTS, parseValue, validateDesign, type PartSpec, type Topology } from "@/lib/oscillator";
 import type { DesignSpec } from "@/lib/spec/types";
 import { optionalEngineeringValue, optionalNumberField, optionalText, pageQuerySchema, tempcoField, toleranceField } from "./common";
+import { withinLimit } from "./limits";
 
 /** One part as entered: value in engineering notation or an IEC 60062 code (or SI number), tolerance, tempco. */
 const rawPartSchema = z.object({
@@ -87,9 +88,7 @@ export const designSpecSchema = z
     if (s.toleranceValue !== undefined && s.targetHz === undefined) {
       ctx.addIssue({ code: "custom", path: ["targetHz"], message: "A frequency tolerance needs a target frequency." });
     }
-    if (s.targetHz !== undefined && !(s.targetHz > 0)) {
-      ctx.addIssue({ code: "custom", path: ["targetHz"], message: "The target frequency must be above 0 Hz." });
-    }
+    if (s.targetHz !== undefined) withinLimit("frequencyHz", "the target frequency", ["targetHz"])(s.targetHz, ctx);
   })
   .transform(
     (s): DesignSpec => ({

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { TOPOLOGY_PARTS, parseValue, type Topology } from "@/lib/oscillator";
 import { booleanField, optionalText } from "./common";
+import { partLimitName, withinLimit } from "./limits";
 
 const UNIT_OF_KIND = { inductance: "H", capacitance: "F", coupling: undefined } as const;
 
@@ -43,9 +44,16 @@ export function tweakInputSchemaFor(topology: Topology) {
         ctx.addIssue({ code: "custom", path: ["toValue"], message: err instanceof Error ? err.message : "This is not a value." });
         return z.NEVER;
       }
-      if (!Number.isFinite(toValue) || toValue < 0 || (role.kind !== "coupling" && t.partRef !== "M" && toValue === 0)) {
-        ctx.addIssue({ code: "custom", path: ["toValue"], message: `The new value of ${t.partRef} must be above 0.` });
-        return z.NEVER;
+      const limit = partLimitName(t.partRef, role.kind);
+      if (limit === null) {
+        if (!(Number.isFinite(toValue) && toValue >= 0 && toValue <= 1)) {
+          ctx.addIssue({ code: "custom", path: ["toValue"], message: `The new value of ${t.partRef} (coupling coefficient) must be a number from 0 to 1; got ${toValue}.` });
+          return z.NEVER;
+        }
+      } else {
+        const before = ctx.issues.length;
+        withinLimit(limit, `the new value of ${t.partRef}`, ["toValue"])(toValue, ctx);
+        if (ctx.issues.length > before) return z.NEVER;
       }
       return { partRef: t.partRef, toValue, note: t.note, planned: t.planned };
     });

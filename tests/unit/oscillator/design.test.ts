@@ -17,8 +17,9 @@ describe("validateDesign", () => {
   it("refuses negative, zero and non-finite values", () => {
     const problems = validateDesign(design("clapp", { L: -1e-6, C1: 0, C2: Number.NaN, C3: Number.POSITIVE_INFINITY }));
     expect(problems).toHaveLength(4);
-    expect(problems[0]).toBe("part L (tank inductor) must be a finite number above 0 H; got -0.000001");
-    expect(problems[1]).toMatch(/^part C1 .* must be a finite number above 0 F; got 0$/);
+    // Engineering notation with the unit, never a raw float (issue 12 item 9).
+    expect(problems[0]).toBe("part L (tank inductor) must be from 1 nH to 10 H; got -1 µH");
+    expect(problems[1]).toMatch(/^part C1 .* must be from 100 fF to 10 mF; got 0 F$/);
     expect(problems[2]).toMatch(/part C2 .* got NaN/);
     expect(problems[3]).toMatch(/part C3 .* got Infinity/);
     expect(validateDesign({ topology: "tank", parts: { L: { valueSi: "1u" }, C: { valueSi: 1e-9 } } })[0]).toMatch(
@@ -33,7 +34,7 @@ describe("validateDesign", () => {
   });
 
   it("refuses tolerances and tempcos out of range", () => {
-    expect(validateDesign(design("tank", { L: 1e-6, C: 1e-9 }, { C: 5 }))[0]).toMatch(/tolerance must be a fraction .* got 5/);
+    expect(validateDesign(design("tank", { L: 1e-6, C: 1e-9 }, { C: 5 }))[0]).toMatch(/tolerance must be from 0 % to 50 %; got 500 %/);
     const bad = { topology: "tank", parts: { L: { valueSi: 1e-6, tempcoPpmPerK: Number.NaN }, C: { valueSi: 1e-9, tempcoSpreadPpmPerK: -1 } } };
     expect(validateDesign(bad)).toHaveLength(2);
   });
@@ -51,7 +52,7 @@ describe("validateDesign", () => {
   });
 
   it("refuses a negative extra capacitance and a bad shape", () => {
-    expect(validateDesign(design("tank", { L: 1e-6, C: 1e-9 }, {}, -3e-12))[0]).toMatch(/extraCapacitanceF .* 0 or above/);
+    expect(validateDesign(design("tank", { L: 1e-6, C: 1e-9 }, {}, -3e-12))[0]).toMatch(/extraCapacitanceF .* from 0 F to 1 µF; got -3 pF/);
     expect(validateDesign(null)).toEqual(["a design must be an object; got null"]);
     expect(validateDesign({ topology: "pierce", parts: {} })[0]).toMatch(/topology must be one of tank, colpitts, hartley, clapp/);
     expect(validateDesign({ topology: "tank", parts: [] })[0]).toMatch(/parts must be an object/);
