@@ -57,6 +57,8 @@ export interface BuildReviewData {
   row: BuildTableRow | null;
   /** Rules the latest analysed run broke (its open or acknowledged flags); empty when it passed. */
   latestFlaggedRules: string[];
+  /** The latest analysed run, whose verdict is the build's state; older runs' flags are its history. */
+  latestAnalysedRun: { id: string; originalFilename: string; createdAt: Date | string } | null;
   tweaks: Tweak[];
 }
 
@@ -163,6 +165,7 @@ export async function loadBuildReview(
     signOff,
     row,
     latestFlaggedRules,
+    latestAnalysedRun: latest ? { id: latest.id, originalFilename: latest.originalFilename, createdAt: latest.createdAt } : null,
     tweaks,
   };
 }

@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { cache } from "react";
 import { AutoRefresh } from "@/components/logbook/auto-refresh";
 import { Breadcrumbs, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { BUILD_KIND_NAMES, buildBadge } from "@/components/logbook/build-status";
@@ -18,7 +17,6 @@ import { Select } from "@/components/ui/field";
 import { PageHeader } from "@/components/ui/page-header";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { buttonVariants } from "@/components/ui/button";
-import { getBuild } from "@/db/queries/builds";
 import { getDesign, getDesignRevision } from "@/db/queries/designs";
 import type { Page } from "@/db/queries/pagination";
 import { listRuns, type RunSummary } from "@/db/queries/runs";
@@ -32,7 +30,10 @@ import { BuildToolsBar, DriftStoryCard, FlagsCard, ImpliedCapacitanceCard, Retun
 import { E_SERIES_NAMES, type ESeriesName } from "@/lib/oscillator/e-series";
 import { CalibratedPredictionPanel } from "@/components/layouts/calibrated-prediction-panel";
 import { buildCalibration } from "@/lib/logbook/layouts";
+import { BrokenRulesNotice, groupFlagsByRule } from "@/components/review/broken-rules-notice";
+import { applyPlannedTweakAction } from "./actions";
 import { BuildActions } from "./build-actions";
+import { loadBuild } from "./load-build";
 
 type Props = {
   params: Promise<{ buildId: string }>;
@@ -44,11 +45,9 @@ function one(value: string | string[] | undefined): string | undefined {
   return v && v.trim() !== "" ? v.trim() : undefined;
 }
 
-const VERDICTS = ["pass", "fail", "none"] as const;
+const VERDICTS = ["pass", "fail", "inconclusive", "none"] as const;
 const STATUSES = ["queued", "running", "done", "failed"] as const;
 
-// The title and the page read the same build: one query per request, not two.
-const loadBuild = cache(getBuild);
 
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   const { buildId } = await params;
@@ -108,17 +107,10 @@ export default async function BuildPage({ params, searchParams }: Props) {
       });
   const items = mergeTimeline(runs.items, windowTweaks);
   const tweaksById = new Map(tweaks.map((t) => [t.id, t]));
-  // One line per broken rule, worded from its most recent flag.
-  const byRule = new Map<string, { latest: (typeof flags)[number]; count: number }>();
-  for (const f of flags) {
-    const seen = byRule.get(f.rule);
-    if (!seen) byRule.set(f.rule, { latest: f, count: 1 });
-    else {
-      seen.count += 1;
-      if (new Date(f.createdAt).getTime() > new Date(seen.latest.createdAt).getTime()) seen.latest = f;
-    }
-  }
-  const flagGroups = [...byRule.values()];
+  // The latest analysed run's broken rules are the build's state; older runs' open flags are history.
+  const latestAnalysedId = review.latestAnalysedRun?.id ?? null;
+  const currentFlags = flags.filter((f) => f.runId === latestAnalysedId);
+  const olderFlagGroups = groupFlagsByRule(flags.filter((f) => f.runId !== latestAnalysedId));
   const latest = runs.items[0] ?? null;
   const badge = buildBadge(build.status, !filtered && !cursor ? latest : null);
   const analysing = runs.items.some((r) => r.status === "queued" || r.status === "running");
@@ -161,24 +153,7 @@ export default async function BuildPage({ params, searchParams }: Props) {
           {build.reviewedAt ? `, ${formatDateTime(build.reviewedAt)}` : ""}: {build.reviewComment}
         </p>
       ) : null}
-      {flagGroups.length > 0 ? (
-        <div role="alert" className="mb-4 rounded-lg border border-verdict-fail/40 bg-verdict-failBg px-4 py-3 text-sm">
-          <p className="font-semibold text-verdict-fail">
-            <span aria-hidden="true">⚑ </span>
-            {flagGroups.length} spec rule{flagGroups.length === 1 ? "" : "s"} broken on this build
-          </p>
-          <ul className="mt-1 list-disc space-y-0.5 pl-5 text-ink">
-            {flagGroups.map(({ latest, count }) => (
-              <li key={latest.rule}>
-                <Link className="underline-offset-2 hover:underline" href={`/runs/${latest.runId}`}>
-                  {latest.message}
-                </Link>
-                {count > 1 ? <span className="text-ink-soft"> (on {count} runs)</span> : null}
-              </li>
-            ))}
-          </ul>
-        </div>
-      ) : null}
+      <BrokenRulesNotice current={currentFlags} older={olderFlagGroups} latestRun={review.latestAnalysedRun} />
 
       <div className="mb-5">
         <BuildToolsBar data={review} build={build} csvFilters={{ verdict, status }} />
@@ -216,6 +191,7 @@ export default async function BuildPage({ params, searchParams }: Props) {
                 <option value="">Any verdict</option>
                 <option value="pass">Pass</option>
                 <option value="fail">Fail</option>
+                <option value="inconclusive">Cannot judge</option>
                 <option value="none">No verdict</option>
               </Select>
               </div>
@@ -254,7 +230,12 @@ export default async function BuildPage({ params, searchParams }: Props) {
             )
           ) : (
             <>
-              <BuildTimeline items={items} topology={topology} tweaksById={tweaksById} />
+              <BuildTimeline
+                items={items}
+                topology={topology}
+                tweaksById={tweaksById}
+                applyTweak={canTweak ? applyPlannedTweakAction.bind(null, build.id) : undefined}
+              />
               <PageNav basePath={base} params={{ verdict, status }} nextCursor={runs.nextCursor} hasCursor={Boolean(cursor)} shown={runs.items.length} noun="runs" />
             </>
           )}

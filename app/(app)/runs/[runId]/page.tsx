@@ -1,6 +1,5 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { cache } from "react";
 import { Breadcrumbs, buildPlace, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { isRowId } from "@/components/logbook/route-ids";
 import { RunView } from "@/components/logbook/run-view";
@@ -9,17 +8,16 @@ import { tweakLabel } from "@/components/logbook/tweak-label";
 import { QueryProvider } from "@/components/providers/query-provider";
 import { PageHeader } from "@/components/ui/page-header";
 import { getBuild } from "@/db/queries/builds";
-import { getRun } from "@/db/queries/runs";
 import { getTweak } from "@/db/queries/tweaks";
 import { requireUser } from "@/lib/auth/current-user";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format/dates";
 import { reanalyseRunAction } from "./actions";
+import { loadRun } from "./load-run";
 
 type Params = { params: Promise<{ runId: string }> };
 
 // The title and the page read the same run: one query per request, not two.
-const loadRun = cache(getRun);
 
 export async function generateMetadata({ params }: Params): Promise<Metadata> {
   const { runId } = await params;
