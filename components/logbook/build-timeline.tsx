@@ -6,6 +6,8 @@ import { VerdictBadge } from "@/components/ui/verdict-badge";
 import type { Topology } from "@/lib/oscillator/design";
 import { formatDateTime } from "@/lib/format/dates";
 import { formatDrift, formatThd, formatWithUncertainty } from "@/lib/format/numbers";
+import type { FormState } from "@/lib/auth/action-state";
+import { ApplyTweakButton } from "./apply-tweak-button";
 import { runBadge } from "./build-status";
 import { tweakLabel, TweakText } from "./tweak-label";
 
@@ -22,9 +24,20 @@ export function mergeTimeline(runs: RunSummary[], tweaks: Tweak[]): TimelineItem
 
 /**
  * The build's story in one table: each run (time, the tweak it follows, measured f, drift, THD, verdict) with the
- * tweak log interleaved in time order, newest first.
+ * tweak log interleaved in time order, newest first. With `applyTweak` (for the roles that may tweak) each planned
+ * tweak carries the control that applies it once the part is fitted.
  */
-export function BuildTimeline({ items, topology, tweaksById }: { items: TimelineItem[]; topology: Topology; tweaksById: Map<string, Tweak> }) {
+export function BuildTimeline({
+  items,
+  topology,
+  tweaksById,
+  applyTweak,
+}: {
+  items: TimelineItem[];
+  topology: Topology;
+  tweaksById: Map<string, Tweak>;
+  applyTweak?: (prev: FormState, formData: FormData) => Promise<FormState>;
+}) {
   return (
     <Table caption="Runs and tweaks of this build, newest first">
       <thead>
@@ -45,15 +58,16 @@ export function BuildTimeline({ items, topology, tweaksById }: { items: Timeline
               <Tr key={`t-${t.id}`} className="bg-paper-sunk/45">
                 <Td className="num whitespace-nowrap font-mono text-[13px] text-ink-soft">{formatDateTime(t.createdAt)}</Td>
                 <Td colSpan={5}>
-                  <span className="flex items-start gap-2 text-sm">
+                  <span className="flex flex-wrap items-start gap-2 text-sm">
                     <span aria-hidden="true" className="text-copper">
                       ✎
                     </span>
-                    <span>
+                    <span className="min-w-0 flex-1">
                       <span className="font-medium text-ink">{t.planned ? "Planned tweak: " : "Tweak: "}</span>
                       <TweakText tweak={t} topology={topology} />
                       <span className="text-ink-faint"> · {t.createdByName}</span>
                     </span>
+                    {t.planned && applyTweak ? <ApplyTweakButton action={applyTweak} tweakId={t.id} label={tweakLabel(t, topology)} /> : null}
                   </span>
                 </Td>
               </Tr>

@@ -63,12 +63,13 @@ export async function logTweak(actor: Actor, buildId: string, raw: unknown, opti
 
 /**
  * Applies a planned tweak: its part takes the planned value now (technician and above).
+ * @param buildId - when given, a tweak of another build is not found (the API addresses tweaks under their build)
  * @throws NotFoundError; ConflictError when it was applied already
  */
-export async function applyPlannedTweak(actor: Actor, tweakId: string): Promise<q.Tweak> {
+export async function applyPlannedTweak(actor: Actor, tweakId: string, buildId?: string): Promise<q.Tweak> {
   const user = requirePermission(actor.user, "tweak:create");
   const tweak = isId(tweakId) ? await q.getTweak(tweakId) : null;
-  if (!tweak) throw new NotFoundError("The tweak");
+  if (!tweak || (buildId !== undefined && tweak.buildId !== buildId)) throw new NotFoundError("The tweak");
   if (!tweak.planned) throw new ConflictError("This tweak is already applied.");
   return db().transaction(async (trx) => {
     const build = (await getBuildForUpdate(tweak.buildId, trx))!;

@@ -10,6 +10,7 @@ import { registerMetaPaths } from "./paths/meta";
 import { registerProjectPaths } from "./paths/projects";
 import { registerReviewPaths } from "./paths/reviews";
 import { registerRunPaths } from "./paths/runs";
+import { registerTweakApplyPaths } from "./paths/tweak-apply";
 import { registerUploadPaths } from "./paths/uploads";
 
 /** The generated document as plain JSON (what /api/v1/openapi.json serves). */
@@ -42,6 +43,7 @@ export function buildOpenApiDocument(): { document: OpenApiDocument; stale: stri
   registerProjectPaths(registry);
   registerDesignPaths(registry);
   registerBuildPaths(registry);
+  registerTweakApplyPaths(registry);
   registerRunPaths(registry);
   registerUploadPaths(registry);
   registerReviewPaths(registry);
