@@ -1,7 +1,7 @@
 "use client";
 
 import Link from "next/link";
-import { useActionState, useDeferredValue, useMemo, useState } from "react";
+import { useActionState, useDeferredValue, useEffect, useMemo, useRef, useState, type FormEvent } from "react";
 import { Button } from "@/components/ui/button";
 import { Card, CardBody, CardHeader } from "@/components/ui/card";
 import { Field, FormMessage, Input, Select, Textarea, describedBy } from "@/components/ui/field";
@@ -12,6 +12,7 @@ import { cn } from "@/lib/utils";
 import { SpecPresetPicker } from "@/components/review/spec-preset-picker";
 import { applyPresetToText, specOfText } from "@/components/review/spec-preset-draft";
 import { TOPOLOGY_NAMES } from "./design-model";
+import { DesignErrorSummary, designFieldId, designFieldLabel, type SummaryItem } from "./design-error-summary";
 import { previewDesign, switchTopology, type DesignDraft, type PartDraft, type SpecDraft } from "./design-draft";
 import { PredictionPanel } from "./prediction-panel";
 
@@ -42,13 +43,43 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
   const preview = useMemo(() => previewDesign(deferred), [deferred]);
   const problems = preview.problems;
   const serverErrors = state.errors ?? {};
+  // After a refused submit every problem shows, empty fields included, and the summary lists them all.
+  const [submitted, setSubmitted] = useState(false);
+  const [focusRequest, setFocusRequest] = useState(0);
+  const summaryRef = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (focusRequest > 0) summaryRef.current?.focus();
+  }, [focusRequest]);
+  useEffect(() => {
+    if (state.errors && Object.keys(state.errors).length > 0) setFocusRequest((n) => n + 1);
+  }, [state]);
 
-  /** Server errors always show; live problems only once the field has something in it. */
+  /** Server errors always show; live problems once the field has something in it, or all of them after a submit. */
   function errorsFor(path: string, text: string): string[] | undefined {
     const server = serverErrors[path];
     if (server?.length) return server;
-    if (text.trim() === "") return undefined;
+    if (text.trim() === "" && !submitted) return undefined;
     return problems[path];
+  }
+
+  const firstRef = Object.keys(TOPOLOGY_PARTS[draft.topology])[0];
+  const summaryItems: SummaryItem[] = (() => {
+    const byPath: Record<string, string[]> = { ...(submitted ? problems : {}) };
+    if (submitted && !whatIf && draft.name.trim() === "") byPath.name = ["Give the design a name."];
+    for (const [path, messages] of Object.entries(serverErrors)) byPath[path] = [...new Set([...(byPath[path] ?? []), ...messages])];
+    return Object.entries(byPath).flatMap(([path, messages]) =>
+      messages.map((message) => ({ fieldId: designFieldId(path, firstRef), label: designFieldLabel(path), message })),
+    );
+  })();
+
+  /** Refuses the submit in the browser when the schema already finds problems, and moves focus to the summary. */
+  function checkBeforeSubmit(event: FormEvent<HTMLFormElement>) {
+    setSubmitted(true);
+    const now = previewDesign(draft);
+    if (Object.keys(now.problems).length > 0 || draft.name.trim() === "") {
+      event.preventDefault();
+      setFocusRequest((n) => n + 1);
+    }
   }
 
   const setPart = (ref: string, patch: Partial<PartDraft>) =>
@@ -72,12 +103,13 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
   return (
     <form
       action={whatIf ? undefined : formAction}
-      onSubmit={whatIf ? (e) => e.preventDefault() : undefined}
+      onSubmit={whatIf ? (e) => e.preventDefault() : checkBeforeSubmit}
       noValidate
       aria-label={whatIf ? "Try other part values" : mode === "edit" ? "Edit the design" : "New design"}
       className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_22rem]"
     >
       <div className="min-w-0 space-y-5">
+        <DesignErrorSummary ref={summaryRef} items={whatIf ? [] : summaryItems} />
         <FormMessage message={state.message} tone={state.ok ? "success" : "error"} />
         {whatIf ? (
           <p className="text-sm text-ink-soft">
@@ -88,7 +120,7 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
         <Card className={whatIf ? "hidden" : undefined}>
           <CardHeader title="Design" />
           <CardBody className="grid gap-4 sm:grid-cols-2">
-            <Field id="design-name" label="Name" errors={serverErrors.name}>
+            <Field id="design-name" label="Name" errors={serverErrors.name ?? (submitted && draft.name.trim() === "" ? ["Give the design a name."] : undefined)}>
               <Input
                 id="design-name"
                 name="name"
@@ -96,7 +128,7 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
                 maxLength={120}
                 onChange={(e) => setDraft((d) => ({ ...d, name: e.target.value }))}
                 aria-describedby={describedBy("design-name")}
-                aria-invalid={serverErrors.name ? true : undefined}
+                aria-invalid={serverErrors.name || (submitted && draft.name.trim() === "") ? true : undefined}
               />
             </Field>
             <Field id="design-topology" label="Topology" errors={serverErrors.topology} hint={mode === "edit" ? "A different topology is a new design." : undefined}>
@@ -211,6 +243,7 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
                   placeholder="e.g. 12p"
                   onChange={(e) => setDraft((d) => ({ ...d, extraCapacitance: e.target.value }))}
                   aria-describedby={describedBy("design-extra")}
+                  aria-invalid={errorsFor("extraCapacitance", draft.extraCapacitance) ? true : undefined}
                   className="num font-mono"
                 />
               </Field>

@@ -46,6 +46,11 @@ export function PredictionPanel({ report }: { report: DesignReport }) {
           detail={`${(stat.coverage * 100).toFixed(1)} % of ${stat.trials.toLocaleString("en-GB")} simulated builds · σ ${formatQuantity(stat.stdDevHz, "Hz", 3)}`}
         />
       </dl>
+      {report.bandWarning ? (
+        <p className="rounded-md border border-verdict-warn/40 bg-verdict-warnBg px-3 py-2 text-xs text-ink" role="note">
+          <strong className="font-semibold">Some tolerance corners are no tank.</strong> {report.bandWarning}.
+        </p>
+      ) : null}
       <details className="rounded-md bg-paper-sunk/60 px-3 py-2 text-xs leading-relaxed text-ink-soft">
         <summary className="cursor-pointer font-medium text-ink">What the model assumes</summary>
         <p className="mt-1">{report.assumptions}</p>

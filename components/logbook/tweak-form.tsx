@@ -8,7 +8,7 @@ import type { Parts } from "@/db/queries/designs";
 import { TOPOLOGY_PARTS, type Topology, type WindingSense } from "@/lib/oscillator/design";
 import { partUnitOrBlank } from "@/components/logbook/part-unit";
 import { predictOscillator } from "@/lib/oscillator/topologies";
-import { parseValue } from "@/lib/oscillator/units";
+import { tweakInputSchemaFor } from "@/lib/validations/tweak";
 import { formatPartValue, formatPpm, formatQuantity } from "@/lib/format/numbers";
 
 export interface TweakFormProps {
@@ -19,8 +19,6 @@ export interface TweakFormProps {
   extraCapacitanceF: number | null;
   windings: WindingSense | null;
 }
-
-const QUANTITY = { F: "F", H: "H" } as const;
 
 /**
  * Log a tweak: a part's new value (the old one is the build's current value), or a free note such as "moved the
@@ -42,13 +40,13 @@ export function TweakForm({ action, topology, asBuilt, extraCapacitanceF, windin
 
   const effect = useMemo(() => {
     if (!partRef || toValue.trim() === "") return null;
-    let valueSi: number;
-    try {
-      valueSi = unit in QUANTITY ? parseValue(toValue, QUANTITY[unit as keyof typeof QUANTITY]) : Number(toValue);
-      if (!Number.isFinite(valueSi)) throw new RangeError(`"${toValue}" is not a number`);
-    } catch (err) {
-      return { error: err instanceof Error ? err.message : "Not a value." };
+    // The server's own schema, so the bench limits and decimal commas read the same here as when it is saved.
+    const parsed = tweakInputSchemaFor(topology).safeParse({ partRef, toValue });
+    if (!parsed.success) {
+      const issue = parsed.error.issues.find((i) => i.path[0] === "toValue") ?? parsed.error.issues[0];
+      return { error: issue?.message ?? "Not a value." };
     }
+    const valueSi = parsed.data.toValue as number;
     try {
       const base = { topology, ...(extraCapacitanceF ? { extraCapacitanceF } : {}), ...(windings ? { windings } : {}) };
       const before = predictOscillator({ ...base, parts: asBuilt }).predictedHz;
@@ -57,7 +55,7 @@ export function TweakForm({ action, topology, asBuilt, extraCapacitanceF, windin
     } catch (err) {
       return { valueSi, error: err instanceof Error ? err.message : "The model refused this value." };
     }
-  }, [partRef, toValue, unit, topology, asBuilt, extraCapacitanceF, windings]);
+  }, [partRef, toValue, topology, asBuilt, extraCapacitanceF, windings]);
 
   const current = partRef ? asBuilt[partRef] : undefined;
   return (
@@ -90,6 +88,7 @@ export function TweakForm({ action, topology, asBuilt, extraCapacitanceF, windin
               placeholder={unit === "F" ? "e.g. 5p6" : unit === "H" ? "e.g. 12u" : ""}
               onChange={(e) => setToValue(e.target.value)}
               aria-describedby={describedBy("tweak-to")}
+              aria-invalid={state.errors?.toValue || (effect && "error" in effect && effect.error) ? true : undefined}
               className="num font-mono"
             />
           </Field>

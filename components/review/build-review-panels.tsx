@@ -99,6 +99,7 @@ export function RetuneSuggestionCard({
           error={data.retuneError}
           plan={can(user.role, "tweak:create") ? planRetuneTweakAction.bind(null, buildId) : undefined}
           seriesLinks={links}
+          trustWarnings={r?.trustWarnings ?? []}
         />
       </CardBody>
     </Card>

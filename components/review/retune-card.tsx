@@ -1,7 +1,7 @@
 "use client";
 
 import Link from "next/link";
-import { useActionState } from "react";
+import { useActionState, type ReactNode } from "react";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import type { FormState } from "@/lib/auth/action-state";
@@ -23,6 +23,21 @@ export interface RetuneCardProps {
   plan?: (prev: FormState, formData: FormData) => Promise<FormState>;
   /** Links to the same suggestion from another E-series. */
   seriesLinks?: { series: string; href: string; current: boolean }[];
+  /** The run's trust warnings, in the engine's words; the card says the suggestion rests on them. */
+  trustWarnings?: string[];
+}
+
+const ratio = (value: number | null): string => (value === null ? "—" : String(Number(value.toPrecision(3))));
+
+function Warning({ children }: { children: ReactNode }) {
+  return (
+    <p className="flex gap-2 rounded-md border border-verdict-warn/40 bg-verdict-warnBg px-3 py-2 text-sm text-ink">
+      <span aria-hidden="true" className="font-semibold text-verdict-warn">
+        !
+      </span>
+      <span>{children}</span>
+    </p>
+  );
 }
 
 function inside(valueHz: number, band: { minHz: number; maxHz: number }): boolean {
@@ -34,7 +49,7 @@ function inside(valueHz: number, band: { minHz: number; maxHz: number }): boolea
  * target (taking the capacitance the measurement implies as real), its predicted frequency and bands, and one
  * button that logs it as a planned tweak.
  */
-export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [] }: RetuneCardProps) {
+export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [], trustWarnings = [] }: RetuneCardProps) {
   const [state, formAction, pending] = useActionState(plan ?? (async (prev: FormState) => prev), {} as FormState);
   if (error) {
     return <p className="text-sm text-verdict-fail">No retune suggestion: {error}</p>;
@@ -60,7 +75,29 @@ export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [] }
         ({formatDateTime(run.createdAt)}, measured <span className="num font-mono">{formatQuantity(run.measuredHz, "Hz", 6)}</span>), taking its implied{" "}
         <span className="num font-mono">{formatSignedCapacitance(s.calibrationCapacitanceF)}</span> as real.
       </p>
-      {s.changed ? (
+      {trustWarnings.length > 0 ? (
+        <Warning>
+          <strong className="font-semibold">This run carries trust warnings</strong>, so the suggestion rests on a measurement that may be off:{" "}
+          {trustWarnings.join(" ")} Check the capture (or log a clean one) before fitting a part.
+        </Warning>
+      ) : null}
+      {s.onTarget ? (
+        <p className="text-sm font-medium text-ink">
+          <span aria-hidden="true" className="text-verdict-pass">
+            ✓{" "}
+          </span>
+          On target, no tweak needed: <span className="num font-mono">{formatQuantity(s.currentHz, "Hz", 6)}</span> is within the spec&apos;s tolerance of
+          the <span className="num font-mono">{formatQuantity(s.targetHz, "Hz", 6)}</span> target.
+        </p>
+      ) : null}
+      {!s.reachable ? (
+        <Warning>
+          <strong className="font-semibold">The target cannot be reached with one part.</strong> The nearest reachable frequency is{" "}
+          <span className="num font-mono">{formatQuantity(s.nearestReachableHz, "Hz", 6)}</span>: {s.unreachableReason}. The change below is only the
+          closest Tankbook found; reaching the target is a redesign.
+        </Warning>
+      ) : null}
+      {s.onTarget ? null : s.changed ? (
         <p className="num font-mono text-lg font-semibold text-ink">
           {s.part} {from} <span aria-hidden="true">→</span>
           <span className="sr-only">to</span> {to} <span className="font-sans text-xs font-medium text-ink-faint">{s.series}</span>
@@ -84,6 +121,32 @@ export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [] }
         <dd className="num text-right font-mono text-[13px] text-ink">{formatRange(s.worstCase.minHz, s.worstCase.maxHz, "Hz", 5)}</dd>
         <dt className="text-ink-soft">Statistical band</dt>
         <dd className="num text-right font-mono text-[13px] text-ink">{formatRange(s.statistical.minHz, s.statistical.maxHz, "Hz", 5)}</dd>
+        {s.feedbackFraction !== null ? (
+          <>
+            <dt className="text-ink-soft">Feedback fraction β</dt>
+            <dd className="num text-right font-mono text-[13px] text-ink">
+              {s.changed ? (
+                <>
+                  {ratio(s.feedbackFractionBefore)} <span aria-hidden="true">→</span>
+                  <span className="sr-only">becomes</span> {ratio(s.feedbackFraction)}
+                </>
+              ) : (
+                ratio(s.feedbackFraction)
+              )}
+            </dd>
+            <dt className="text-ink-soft">Minimum gain to start</dt>
+            <dd className="num text-right font-mono text-[13px] text-ink">
+              {s.changed ? (
+                <>
+                  {ratio(s.minGainBefore)} × <span aria-hidden="true">→</span>
+                  <span className="sr-only">becomes</span> {ratio(s.minGain)} ×
+                </>
+              ) : (
+                `${ratio(s.minGain)} ×`
+              )}
+            </dd>
+          </>
+        ) : null}
         {s.idealSi !== null ? (
           <>
             <dt className="text-ink-soft">Exact value for the target</dt>
@@ -91,6 +154,11 @@ export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [] }
           </>
         ) : null}
       </dl>
+      {s.changed && s.startupWarning ? (
+        <Warning>
+          <strong className="font-semibold">Less start-up margin.</strong> {s.startupWarning}.
+        </Warning>
+      ) : null}
       <p className="text-xs text-ink-soft">
         <span aria-hidden="true">{targetInWorst ? "✓ " : "! "}</span>
         {targetInWorst
@@ -113,7 +181,7 @@ export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [] }
           ))}
         </nav>
       ) : null}
-      {plan && s.changed ? (
+      {plan && s.changed && s.reachable && !s.onTarget ? (
         <form action={formAction} className="no-print space-y-2">
           <input type="hidden" name="series" value={s.series} />
           <Button type="submit" disabled={pending}>

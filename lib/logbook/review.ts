@@ -226,6 +226,23 @@ export async function followProject(actor: CurrentUser | null, input: { projectI
 export interface BuildRetune {
   run: Pick<Run, "id" | "originalFilename" | "createdAt" | "measuredHz">;
   suggestion: RetuneSuggestion;
+  /** The run's trust warnings (clipping, not steady, few cycles…), in the engine's words; the suggestion rests on them. */
+  trustWarnings: string[];
+}
+
+/** The engine's trust warnings of a run's results, each as its sentence. */
+function trustWarningsOf(results: Record<string, unknown> | null): string[] {
+  const warnings = results?.warnings;
+  if (!Array.isArray(warnings)) return [];
+  return warnings
+    .filter((w): w is { code: string; message?: unknown } => typeof w === "object" && w !== null && typeof (w as { code?: unknown }).code === "string")
+    .map((w) => (typeof w.message === "string" ? w.message : w.code));
+}
+
+/** The spec's frequency tolerance in Hz around its target; undefined when the spec sets none. */
+function toleranceHzOf(spec: { toleranceValue?: number | null; toleranceUnit?: string | null }, targetHz: number): number | undefined {
+  if (typeof spec.toleranceValue !== "number") return undefined;
+  return spec.toleranceUnit === "ppm" ? (targetHz * spec.toleranceValue) / 1e6 : (targetHz * spec.toleranceValue) / 100;
 }
 
 /**
@@ -249,9 +266,13 @@ export async function getRetuneSuggestion(buildId: string, options: { series?: E
       ...(snapshot.extraCapacitanceF !== null ? { extraCapacitanceF: snapshot.extraCapacitanceF } : {}),
       ...(snapshot.windings ? { windings: snapshot.windings } : {}),
     },
-    { targetHz, measuredHz: run.measuredHz, series: options.series ?? "E12" },
+    { targetHz, measuredHz: run.measuredHz, series: options.series ?? "E12", targetToleranceHz: toleranceHzOf(snapshot.spec, targetHz) },
   );
-  return { run: { id: run.id, originalFilename: run.originalFilename, createdAt: run.createdAt, measuredHz: run.measuredHz }, suggestion };
+  return {
+    run: { id: run.id, originalFilename: run.originalFilename, createdAt: run.createdAt, measuredHz: run.measuredHz },
+    suggestion,
+    trustWarnings: trustWarningsOf(run.results),
+  };
 }
 
 function valueText(valueSi: number, unit: "F" | "H"): string {
@@ -277,6 +298,8 @@ export async function planRetuneTweak(
     const retune = await getRetuneSuggestion(input.buildId, { series: input.series }, trx);
     if (!retune) throw new ConflictError("There is no retune suggestion yet: it needs an analysed run with a measured frequency and a target frequency in the spec.");
     const s = retune.suggestion;
+    if (s.onTarget) throw new ConflictError("The build is on target within the spec's tolerance: no tweak needed.");
+    if (!s.reachable) throw new ConflictError(`No single part change gets there: ${s.unreachableReason}.`);
     if (!s.changed) throw new ConflictError(`${s.part} is already the nearest ${s.series} value for the target; no change to plan.`);
     const current = build.asBuilt[s.part]?.valueSi;
     if (current === undefined || Math.abs(current - s.fromSi) > 1e-9 * Math.abs(s.fromSi)) {
@@ -287,7 +310,9 @@ export async function planRetuneTweak(
     const note =
       `Planned from the retune suggestion on run ${retune.run.originalFilename}: ${s.part} ${valueText(s.fromSi, s.unit)} → ${valueText(s.toSi, s.unit)} (${s.series}), ` +
       `predicted ${formatEngineering(s.predictedHz, "Hz", 6)} for the ${formatEngineering(s.targetHz, "Hz", 6)} target ` +
-      `(worst case ${formatEngineering(s.worstCase.minHz, "Hz", 5)} to ${formatEngineering(s.worstCase.maxHz, "Hz", 5)}).`;
+      `(worst case ${formatEngineering(s.worstCase.minHz, "Hz", 5)} to ${formatEngineering(s.worstCase.maxHz, "Hz", 5)}).` +
+      (s.startupWarning ? ` Start-up: ${s.startupWarning}.` : "") +
+      (retune.trustWarnings.length > 0 ? ` The run carries trust warnings: ${retune.trustWarnings.join(" ")}` : "");
     const tweak = await createTweak({ buildId: input.buildId, partRef: s.part, fromValue: s.fromSi, toValue: s.toSi, note, planned: true, createdBy: user.id }, trx);
     await recordAudit(
       {

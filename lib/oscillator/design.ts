@@ -138,6 +138,11 @@ function partProblems(ref: string, part: unknown, role: PartRole): string[] {
   return problems;
 }
 
+/** A gain as a message shows it: 3 figures, exponent form past 10⁴ ("1.00e7", not "10000000"). */
+function gainText(gain: number): string {
+  return gain >= 1e4 ? gain.toExponential(2).replace("e+", "e") : String(Number(gain.toPrecision(3)));
+}
+
 /**
  * The feedback fraction of the nominal values, for the plausibility check only (topologies.ts holds the model and
  * its sources; it imports this file, so the two formulas are repeated here rather than imported).
@@ -221,7 +226,7 @@ export function validateDesign(value: unknown): string[] {
     const problem = beta === null || !Number.isFinite(beta) ? null : limitProblem("feedbackFraction", beta, "the feedback fraction β");
     if (problem) {
       const which = topology === "hartley" ? "(L2+M)/(L1+M)" : "C1/C2";
-      problems.push(`${problem} (β = ${which}; the amplifier would need a gain of ${Number((1 / beta!).toPrecision(3))} to start)`);
+      problems.push(`${problem} (β = ${which}; the amplifier would need a gain of ${gainText(1 / beta!)} to start)`);
     }
   }
   if (d.calibrationCapacitanceF !== undefined && !isFiniteNumber(d.calibrationCapacitanceF)) {

@@ -2,7 +2,7 @@ import { z } from "zod";
 import { TOPOLOGIES, TOPOLOGY_PARTS, parseValue, validateDesign, type PartSpec, type Topology } from "@/lib/oscillator";
 import type { DesignSpec } from "@/lib/spec/types";
 import { optionalEngineeringValue, optionalNumberField, optionalText, pageQuerySchema, tempcoField, toleranceField } from "./common";
-import { withinLimit } from "./limits";
+import { partLimitName, withinLimit } from "./limits";
 
 /** One part as entered: value in engineering notation or an IEC 60062 code (or SI number), tolerance, tempco. */
 const rawPartSchema = z.object({
@@ -45,6 +45,13 @@ function parseParts(topology: Topology, raw: Record<string, RawPart>, ctx: z.Ref
         ctx.addIssue({ code: "custom", path: ["parts", ref, "value"], message: err instanceof Error ? err.message : "This is not a value." });
         continue;
       }
+    }
+    // The bench limit per part here, so one unreadable value does not hide another part's absurd one.
+    const limit = partLimitName(ref, role.kind);
+    if (limit !== null) {
+      const before = ctx.issues.length;
+      withinLimit(limit, `part ${ref} (${role.description})`, ["parts", ref, "value"])(valueSi, ctx);
+      if (ctx.issues.length > before) continue;
     }
     const spec: PartSpec = { valueSi };
     if (part.tolerance !== undefined) spec.tolerance = part.tolerance;
@@ -148,6 +155,38 @@ export const designInputSchema = z
     };
   });
 export type DesignInput = z.output<typeof designInputSchema>;
+
+/**
+ * Every problem of a design form at once. {@link designInputSchema} stops at the first failing object (a bad
+ * target hides the part values), so when it fails this also checks the parts, the spec and the name apart and
+ * merges what they find, each issue once.
+ *
+ * @param raw - the form object or JSON the schema refused.
+ * @param error - the schema's error.
+ * @returns an error carrying the union of the issues, under the same dotted paths.
+ */
+export function everyDesignIssue(raw: unknown, error: z.ZodError): z.ZodError {
+  if (typeof raw !== "object" || raw === null) return error;
+  const o = raw as Record<string, unknown>;
+  const issues = [...error.issues];
+  const seen = new Set(issues.map((i) => `${i.path.join(".")}|${i.message}`));
+  const add = (found: readonly z.core.$ZodIssue[], prefix: PropertyKey[]) => {
+    for (const issue of found) {
+      const path = [...prefix, ...issue.path];
+      const key = `${path.join(".")}|${issue.message}`;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      issues.push({ ...issue, path } as z.core.$ZodIssue);
+    }
+  };
+  const partsOnly = designInputSchema.safeParse({ ...o, name: "parts only", spec: {} });
+  if (!partsOnly.success) add(partsOnly.error.issues.filter((i) => i.path[0] !== "name" && i.path[0] !== "spec"), []);
+  const spec = designSpecSchema.safeParse(o.spec ?? {});
+  if (!spec.success) add(spec.error.issues, ["spec"]);
+  const name = nameField.safeParse(o.name);
+  if (!name.success) add(name.error.issues, ["name"]);
+  return new z.ZodError(issues);
+}
 
 /**
  * A change to a design (a new revision): every field optional. Parts given replace those refs (the others stay),

@@ -80,6 +80,7 @@ export default async function BuildReportPage({ params }: Props) {
   }
 
   const runs = [...runsPage.items].reverse();
+  const appliedTweaks = data.tweaks.filter((t) => !t.planned).length;
   const tweakText = Object.fromEntries(data.tweaks.map((t) => [t.id, tweakLabel(t, topology)]));
   const chartIndex = Object.fromEntries(data.series.runs.map((r) => [r.id, r.index]));
   const runNames = Object.fromEntries(runs.map((r) => [r.id, r.originalFilename]));
@@ -108,7 +109,7 @@ export default async function BuildReportPage({ params }: Props) {
           revision {rev.revision}) in {build.projectName} · built by {build.builtByName}, {formatDateTime(build.createdAt)}
         </p>
         <p className="text-xs text-ink-faint">
-          {runs.length} {runs.length === 1 ? "run" : "runs"} · {data.tweaks.filter((t) => !t.planned).length} tweaks · printed from Tankbook{" "}
+          {runs.length} {runs.length === 1 ? "run" : "runs"} · {appliedTweaks} {appliedTweaks === 1 ? "tweak" : "tweaks"} · printed from Tankbook{" "}
           <span className="num font-mono">{formatDateTime(new Date())}</span> by {user.name}
         </p>
       </header>

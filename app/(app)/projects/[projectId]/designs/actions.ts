@@ -9,7 +9,7 @@ import { failedForm, formObject, invalidForm } from "@/lib/logbook/action-helper
 import { createBuild } from "@/lib/logbook/builds";
 import { createDesign, getDesign, reviseDesign } from "@/lib/logbook/designs";
 import { buildInputSchema } from "@/lib/validations/build";
-import { designInputSchema, designPatchSchemaFor } from "@/lib/validations/design";
+import { designInputSchema, designPatchSchemaFor, everyDesignIssue } from "@/lib/validations/design";
 
 // Design forms post dotted names mirroring designInputSchema: name, topology, windings, extraCapacitance,
 // changeNote, parts.<REF>.value|tolerance|tempco, spec.targetHz|toleranceValue|toleranceUnit|maxThdPercent|
@@ -23,8 +23,10 @@ async function actor() {
 export async function createDesignAction(projectId: string, _prev: FormState, formData: FormData): Promise<FormState> {
   let designId: string;
   try {
-    const parsed = designInputSchema.safeParse(formObject(formData));
-    if (!parsed.success) return invalidForm(parsed.error, formData);
+    const raw = formObject(formData);
+    const parsed = designInputSchema.safeParse(raw);
+    // Every problem at once, so the form's summary lists them all (the schema alone stops at the first object).
+    if (!parsed.success) return invalidForm(everyDesignIssue(raw, parsed.error), formData);
     designId = (await createDesign(await actor(), projectId, parsed.data)).id;
   } catch (err) {
     return failedForm(err, formData);

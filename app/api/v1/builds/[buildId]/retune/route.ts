@@ -14,16 +14,18 @@ type Params = { buildId: string };
 
 /**
  * The retune suggestion from the build's latest analysed run, `?series=E12` (default): `{runId, suggestion}` with
- * the part, from/to values (SI), predicted f0 and its bands; `{runId: null, suggestion: null}` when there is none.
+ * the part, from/to values (SI), predicted f0 and its bands, β and start-up gain before and after, whether the target
+ * is reachable (else the nearest reachable frequency) and the run's trust warnings; `{runId: null, suggestion: null}`
+ * when there is none.
  */
 export const GET = apiHandler<Params>({ action: "read" }, async (request, context) => {
   const { buildId } = await context.params;
   if (!isId(buildId)) throw new NotFoundError("The build");
   const { series } = retunePlanSchema.parse({ ...queryObject(request), buildId });
   const retune = await getRetuneSuggestion(buildId, { series: series as ESeriesName | undefined });
-  if (!retune) return Response.json({ runId: null, suggestion: null });
+  if (!retune) return Response.json({ runId: null, suggestion: null, trustWarnings: [] });
   const { design: _design, ...suggestion } = retune.suggestion;
-  return Response.json({ runId: retune.run.id, suggestion });
+  return Response.json({ runId: retune.run.id, suggestion, trustWarnings: retune.trustWarnings });
 });
 
 /** Log the suggestion as a planned tweak (technician and above), JSON `{series?}`: 201 with the tweak (200 when already planned). */
