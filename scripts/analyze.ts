@@ -27,7 +27,20 @@ import {
 const USAGE = "usage: analyze FILE [--channel NAME] [--harmonics N] [--probe N] [--json]";
 const CHUNK_BYTES = 1 << 20;
 
+const HELP = `${USAGE}
+
+Runs the capture analysis on one CSV file and prints a short table.
+  --channel NAME   the channel to analyse (default: the first voltage column)
+  --harmonics N    how many harmonics to measure, 1 to 100
+  --probe N        multiply the volts by a probe's attenuation (10, 10x, 10:1) the scope was not told about
+  --json           print one JSON object (SI units, no plot data) instead of the table
+  --help, -h       print this help
+Exit status: 0 done, 1 bad input (one line on stderr), 2 bad usage.
+`;
+
 class UsageError extends Error {}
+/** Thrown by the option parser for --help: not an error, the help goes to stdout with status 0. */
+class HelpRequested extends Error {}
 
 interface Arguments {
   file: string;
@@ -45,7 +58,8 @@ function parseArguments(argv: string[]): Arguments {
   let json = false;
   for (let i = 0; i < argv.length; i++) {
     const arg = argv[i];
-    if (arg === "--json") json = true;
+    if (arg === "--help" || arg === "-h") throw new HelpRequested();
+    else if (arg === "--json") json = true;
     else if (arg === "--channel" || arg === "--harmonics" || arg === "--probe") {
       const value = argv[++i];
       if (value === undefined) throw new UsageError(`${arg} needs a value; ${USAGE}`);
@@ -202,6 +216,10 @@ function main(argv: string[]): number {
     process.stdout.write(args.json ? JSON.stringify(result) + "\n" : table(result));
     return 0;
   } catch (error) {
+    if (error instanceof HelpRequested) {
+      process.stdout.write(HELP);
+      return 0;
+    }
     const known = error instanceof CaptureImportError || error instanceof UsageError;
     const message = error instanceof Error ? error.message : String(error);
     process.stderr.write(`analyze: ${known ? "" : "internal error: "}${message.replace(/\s*\n\s*/g, " ")}\n`);

@@ -32,6 +32,14 @@ export function ruleLabel(rule: string): string {
   return rule.replace(/-/g, " ");
 }
 
+// Numeric runs compare as numbers, so "harmonic 2" comes before "harmonic 10".
+const naturalOrder = new Intl.Collator("en", { numeric: true, sensitivity: "base" });
+
+/** Rule ids in the order a reader expects their names: natural order of {@link ruleLabel}. */
+export function compareRules(a: string, b: string): number {
+  return naturalOrder.compare(ruleLabel(a), ruleLabel(b));
+}
+
 const REASONS: Record<FollowVia | "all", string> = {
   build: "you follow this build",
   project: "you follow its project",
@@ -48,8 +56,10 @@ function utc(date: Date): string {
  * @throws TypeError when runUrl is not an http(s) URL (from renderEmail)
  */
 export function renderFlagEmail(input: FlagEmailInput): { subject: string; text: string; html: string } {
-  const { build, run, newFlags } = input;
-  const failedCount = newFlags.length + input.stillFailing.length;
+  const { build, run } = input;
+  const newFlags = [...input.newFlags].sort((a, b) => compareRules(a.rule, b.rule));
+  const stillFailing = [...input.stillFailing].sort(compareRules);
+  const failedCount = newFlags.length + stillFailing.length;
   const names = newFlags.map((f) => ruleLabel(f.rule));
   const subject = `Spec flag on ${build.label} (${build.designName}): ${names.join(", ")}`;
   const paragraphs = [
@@ -59,8 +69,8 @@ export function renderFlagEmail(input: FlagEmailInput): { subject: string; text:
     `${newFlags.length === 1 ? "Newly failing rule" : "Newly failing rules"}:`,
     ...newFlags.map((f) => `• ${ruleLabel(f.rule)}: ${f.message}`),
   ];
-  if (input.stillFailing.length > 0) {
-    paragraphs.push(`Still failing, already reported: ${input.stillFailing.map(ruleLabel).join(", ")}.`);
+  if (stillFailing.length > 0) {
+    paragraphs.push(`Still failing, already reported: ${stillFailing.map(ruleLabel).join(", ")}.`);
   }
   paragraphs.push(
     "You will not get another e-mail about these rules on this build until a run passes them again.",

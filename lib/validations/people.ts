@@ -4,7 +4,14 @@ import { emailSchema, personNameSchema } from "./auth";
 
 export const roleSchema = z.enum(roles, { error: "Choose a role: viewer, technician, engineer or admin." });
 
-export const inviteSchema = z.object({ email: emailSchema, role: roleSchema });
+// The invitee's address: emailSchema's rules, with the empty case worded for the person sending the invitation.
+const inviteeEmailSchema = z
+  .string({ error: "Enter the e-mail address of the person you are inviting." })
+  .trim()
+  .min(1, "Enter the e-mail address of the person you are inviting.")
+  .pipe(emailSchema);
+
+export const inviteSchema = z.object({ email: inviteeEmailSchema, role: roleSchema });
 
 export const invitationIdSchema = z.object({ invitationId: z.string().min(1).max(64) });
 

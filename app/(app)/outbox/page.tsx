@@ -5,7 +5,6 @@ import { PageHeader } from "@/components/ui/page-header";
 import { requireUser } from "@/lib/auth/current-user";
 import { outboxAvailable } from "@/lib/auth/outbox-available";
 import { can } from "@/lib/auth/permissions";
-import { refusalMessage } from "@/lib/auth/require-permission";
 import { listHeldMessages } from "@/lib/mail/outbox";
 import type { HeldMessage } from "@/lib/mail";
 import { ForbiddenNotice } from "../forbidden-notice";
@@ -17,7 +16,14 @@ export const dynamic = "force-dynamic";
 export default async function OutboxPage() {
   const user = await requireUser("/outbox");
   if (!outboxAvailable()) notFound();
-  if (!can(user.role, "people:manage")) return <ForbiddenNotice message={refusalMessage(user.role, "people:manage")} />;
+  // The held messages carry invitation and password-reset links, hence the admin role (people:manage).
+  if (!can(user.role, "people:manage")) {
+    return (
+      <ForbiddenNotice
+        message={`The outbox shows every e-mail Tankbook sent, with their invitation and password-reset links, so only admins read it; your role is ${user.role}.`}
+      />
+    );
+  }
   let messages: HeldMessage[] = [];
   let problem: string | null = null;
   try {

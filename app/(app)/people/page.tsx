@@ -54,7 +54,9 @@ export default async function PeoplePage() {
               <Td>
                 <InlineActionForm action={changeRoleAction} submitLabel="Save" submitAriaLabel={`Save the role of ${p.name}`}>
                   <input type="hidden" name="userId" value={p.id} />
-                  <Select name="role" defaultValue={p.role} aria-label={`Role of ${p.name}`} className="h-8 w-32">
+                  {/* Keyed by the saved role: React sets a select's default only when it mounts, so after "Role saved." the
+                      form's reset would otherwise show (and a second Save would send) the old role. */}
+                  <Select key={p.role} name="role" defaultValue={p.role} aria-label={`Role of ${p.name}`} className="h-8 w-32">
                     {roles.map((r) => (
                       <option key={r} value={r}>
                         {r}

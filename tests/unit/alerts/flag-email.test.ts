@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { renderFlagEmail, ruleLabel, type FlagEmailInput } from "@/lib/alerts/flag-email";
+import { compareRules, renderFlagEmail, ruleLabel, type FlagEmailInput } from "@/lib/alerts/flag-email";
 
 function input(over: Partial<FlagEmailInput> = {}): FlagEmailInput {
   return {
@@ -27,10 +27,24 @@ describe("ruleLabel", () => {
   });
 });
 
+describe("compareRules", () => {
+  it("orders_numbers_inside_rule_names_by_value", () => {
+    expect(["harmonic-10", "thd", "harmonic-2", "frequency", "harmonic-1"].sort(compareRules)).toEqual(["frequency", "harmonic-1", "harmonic-2", "harmonic-10", "thd"]);
+  });
+});
+
 describe("renderFlagEmail", () => {
   it("subject_names_the_build_design_and_new_rules", () => {
     const mail = renderFlagEmail(input({ newFlags: [{ rule: "thd", message: "a" }, { rule: "harmonic-2", message: "b" }] }));
-    expect(mail.subject).toBe("Spec flag on BB-3 (Clapp 7 MHz): THD, harmonic 2");
+    expect(mail.subject).toBe("Spec flag on BB-3 (Clapp 7 MHz): harmonic 2, THD");
+  });
+
+  it("subject_and_lists_put_harmonic_2_before_harmonic_10", () => {
+    const flags = ["harmonic-10", "harmonic-3", "harmonic-2"].map((rule) => ({ rule, message: `${rule} too high` }));
+    const mail = renderFlagEmail(input({ newFlags: flags, stillFailing: ["harmonic-12", "harmonic-9"] }));
+    expect(mail.subject).toBe("Spec flag on BB-3 (Clapp 7 MHz): harmonic 2, harmonic 3, harmonic 10");
+    expect(mail.text.indexOf("• harmonic 2:")).toBeLessThan(mail.text.indexOf("• harmonic 10:"));
+    expect(mail.text).toContain("Still failing, already reported: harmonic 9, harmonic 12.");
   });
 
   it("text_has_the_verdict_the_rule_messages_the_utc_time_and_the_link", () => {
