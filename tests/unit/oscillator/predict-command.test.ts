@@ -94,6 +94,48 @@ describe("predict command", () => {
     expect(predict("--topology", "colpitts", "L=100u", "C1=1n", "C2=4.7q").stderr).toMatch(/"4\.7q" is not a value/);
   });
 
+  it("refuses values no bench holds, in engineering notation with the unit", () => {
+    // Issue 12's reproductions: each is exit code 2 with one line naming the limit.
+    const cases: [string[], RegExp][] = [
+      [["--topology", "tank", "L=1e30", "C=1n"], /part L \(tank inductor\) must be from 1 nH to 10 H; got 1e30 H/],
+      [["--topology", "tank", "L=10u", "C=1n", "--tempco", "C=N750", "--delta-t", "-2000"], /--delta-t .* got -2000 K \(that is at or below absolute zero\)/],
+      [["--topology", "tank", "L=10u", "C=1n", "--target", "1e30"], /--target must be from 100 mHz to 20 GHz; got 1e30 Hz/],
+      [["--topology", "tank", "L=1f", "C=1f"], /got 1 fH; part C .* got 1 fF/],
+    ];
+    for (const [args, message] of cases) {
+      const { code, stdout, stderr } = predict(...args);
+      expect(code, args.join(" ")).toBe(2);
+      expect(stdout).toBe("");
+      expect(stderr).toMatch(message);
+      expect(stderr).not.toMatch(/\d\.\d{8,}/);
+    }
+  });
+
+  it("reports a tolerance corner that cancels a Hartley's inductance and still prints the prediction", () => {
+    const { code, stdout, stderr } = predict(
+      "--topology", "hartley", "L1=10u", "L2=10u", "k=0.99", "C=1n", "--windings", "opposing", "--tol", "L=10%", "k=5%",
+    );
+    expect(stderr).toBe("");
+    expect(code).toBe(0);
+    // L_eff = 20 µH − 2·0.99·10 µH = 200 nH [derived], f0 = 1/(2π√(200 nH · 1 nF)) = 11.2540 MHz.
+    expect(stdout).toMatch(/predicted f0 {9}11\.2540 MHz/);
+    expect(stdout.replace(/\s+/g, " ")).toMatch(/warning: 2 of 8 tolerance corners make the model invalid/);
+  });
+
+  it("says when a retune target cannot be reached, with the nearest reachable frequency", () => {
+    const { code, stdout } = predict("--topology", "clapp", "L=100u", "C1=1n", "C2=1n", "C3=100p", "--target", "500k");
+    expect(code).toBe(0);
+    const text = stdout.replace(/\s+/g, " ");
+    expect(text).toMatch(/cannot be reached: the 500 kHz target cannot be reached/);
+    expect(text).toMatch(/nearest reachable frequency is 713\.540 kHz/);
+  });
+
+  it("accepts decimal commas in part values", () => {
+    const { code, stdout } = predict("--topology", "tank", "L=10u", "C=4,7n", "--json");
+    expect(code).toBe(0);
+    expect(JSON.parse(stdout).design.parts.C.valueSi).toBe(4.7e-9);
+  });
+
   it("prints usage for --help", () => {
     const { code, stdout } = predict("--help");
     expect(code).toBe(0);
