@@ -230,7 +230,7 @@ export function designProblemsByField(design: unknown): Record<string, string[]>
   const fields: Record<string, string[]> = {};
   for (const problem of validateDesign(design)) {
     const ref = /^part (\S+)/.exec(problem)?.[1];
-    const key = ref ? `parts.${ref}.value` : "parts";
+    const key = ref ? `parts.${ref}.value` : /^extraCapacitanceF/.test(problem) ? "extraCapacitance" : "parts";
     (fields[key] ??= []).push(problem);
   }
   return fields;
