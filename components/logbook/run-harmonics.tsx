@@ -42,7 +42,7 @@ export function HarmonicsTable({ figures, limitDbc }: { figures: RunFigures; lim
   const notes = figures.harmonics.filter((h) => h.status === "not-separable" && h.note);
   const anyFolded = figures.harmonics.some((h) => h.folded);
   return (
-    <section aria-labelledby="harmonics-heading" className="space-y-2">
+    <section aria-labelledby="harmonics-heading" className="min-w-0 space-y-2">
       <h2 id="harmonics-heading" className="text-sm font-semibold text-ink">
         Harmonics
       </h2>
@@ -92,7 +92,7 @@ export function HarmonicsTable({ figures, limitDbc }: { figures: RunFigures; lim
 /** The largest components that are not harmonics, each named by what it most likely is. */
 export function SpursTable({ spurs }: { spurs: SpurRow[] }) {
   return (
-    <section aria-labelledby="spurs-heading" className="space-y-2">
+    <section aria-labelledby="spurs-heading" className="min-w-0 space-y-2">
       <h2 id="spurs-heading" className="text-sm font-semibold text-ink">
         Other components
       </h2>
