@@ -148,3 +148,129 @@ export async function listLayoutGroups(filter: LayoutFilter = {}, trx: Knex | Kn
     steadyBuilds: r.steady_builds ?? [],
   }));
 }
+
+/** A build as the comparison heads it. */
+export interface CompareBuildRow {
+  id: string;
+  label: string;
+  kind: BuildKind;
+  kindRevision: string;
+  status: string;
+  designId: string;
+  designName: string;
+  topology: Topology;
+  projectId: string;
+  projectName: string;
+}
+
+/** An analysed run of a compared build, light: what the implied-capacitance trend needs. */
+export interface CompareTrendRun {
+  id: string;
+  buildId: string;
+  createdAt: Date;
+  impliedExtraCapacitanceF: number | null;
+  cEffF: number | null;
+  measuredHz: number | null;
+  frequencyUncertaintyHz: number | null;
+}
+
+export interface CompareTweak {
+  id: string;
+  buildId: string;
+  createdAt: Date;
+  partRef: string | null;
+  planned: boolean;
+}
+
+/** The newest analysed run of a compared build, with what the comparison shows of it. */
+export interface CompareLatestRun {
+  id: string;
+  buildId: string;
+  createdAt: Date;
+  originalFilename: string;
+  measuredHz: number | null;
+  frequencyUncertaintyHz: number | null;
+  predictedHz: number | null;
+  worstCase: { minHz: number; maxHz: number } | null;
+  statistical: { minHz: number; maxHz: number } | null;
+  driftPpm: number | null;
+  impliedExtraCapacitanceF: number | null;
+  thdPercent: number | null;
+  worstHarmonicDbc: number | null;
+  verdict: "pass" | "fail" | null;
+  /** Measured harmonic levels, by order; orders without a level are left out. */
+  harmonics: { order: number; dBc: number }[];
+  /** Codes of the trust warnings the analysis raised. */
+  warningCodes: string[];
+}
+
+export interface CompareRows {
+  builds: CompareBuildRow[];
+  trendRuns: CompareTrendRun[];
+  tweaks: CompareTweak[];
+  latestRuns: CompareLatestRun[];
+}
+
+/**
+ * Everything a comparison of builds reads, in four statements whatever the number of builds: the builds, their
+ * analysed runs (light), their tweaks, and each build's newest analysed run in full.
+ * @param buildIds - UUIDs; unknown ones are simply absent from the answer.
+ */
+export async function listCompareRows(buildIds: readonly string[], trx: Knex | Knex.Transaction = db()): Promise<CompareRows> {
+  const ids = [...buildIds];
+  const [builds, trendRuns, tweaks, latest] = await Promise.all([
+    trx("builds as b")
+      .join("designs as d", "d.id", "b.design_id")
+      .join("projects as p", "p.id", "d.project_id")
+      .whereIn("b.id", ids)
+      .select(
+        "b.id",
+        "b.label",
+        "b.kind",
+        "b.kind_revision as kindRevision",
+        "b.status",
+        "d.id as designId",
+        "d.name as designName",
+        "d.topology",
+        "p.id as projectId",
+        "p.name as projectName",
+      ) as Promise<CompareBuildRow[]>,
+    trx("runs as r")
+      .whereIn("r.build_id", ids)
+      .where("r.status", "done")
+      .orderBy([{ column: "r.created_at" }, { column: "r.id" }])
+      .select(
+        "r.id",
+        "r.build_id as buildId",
+        "r.created_at as createdAt",
+        "r.implied_extra_capacitance_f as impliedExtraCapacitanceF",
+        trx.raw(`(r.snapshot->>'cEffF')::double precision as "cEffF"`),
+        "r.measured_hz as measuredHz",
+        "r.frequency_uncertainty_hz as frequencyUncertaintyHz",
+      ) as Promise<CompareTrendRun[]>,
+    trx("tweaks as t")
+      .whereIn("t.build_id", ids)
+      .orderBy([{ column: "t.created_at" }, { column: "t.id" }])
+      .select("t.id", "t.build_id as buildId", "t.created_at as createdAt", "t.part_ref as partRef", "t.planned") as Promise<CompareTweak[]>,
+    trx.raw<{ rows: CompareLatestRun[] }>(
+      `select distinct on (r.build_id)
+              r.id, r.build_id as "buildId", r.created_at as "createdAt", r.original_filename as "originalFilename",
+              r.measured_hz as "measuredHz", r.frequency_uncertainty_hz as "frequencyUncertaintyHz",
+              coalesce((r.snapshot->>'predictedHz')::double precision, r.predicted_hz) as "predictedHz",
+              case when jsonb_typeof(r.snapshot->'worstCase') = 'object' then r.snapshot->'worstCase' end as "worstCase",
+              case when jsonb_typeof(r.snapshot->'statistical') = 'object' then r.snapshot->'statistical' end as "statistical",
+              r.drift_ppm as "driftPpm", r.implied_extra_capacitance_f as "impliedExtraCapacitanceF",
+              r.thd_percent as "thdPercent", r.worst_harmonic_dbc as "worstHarmonicDbc", r.verdict,
+              coalesce((select jsonb_agg(jsonb_build_object('order', (h->>'order')::int, 'dBc', (h->>'dBc')::double precision) order by (h->>'order')::int)
+                          from jsonb_array_elements(case when jsonb_typeof(r.results->'harmonics') = 'array' then r.results->'harmonics' else '[]'::jsonb end) h
+                         where jsonb_typeof(h->'dBc') = 'number' and jsonb_typeof(h->'order') = 'number'), '[]'::jsonb) as harmonics,
+              coalesce((select jsonb_agg(w->>'code')
+                          from jsonb_array_elements(case when jsonb_typeof(r.results->'warnings') = 'array' then r.results->'warnings' else '[]'::jsonb end) w), '[]'::jsonb) as "warningCodes"
+         from runs r
+        where r.build_id = any(?::uuid[]) and r.status = 'done'
+        order by r.build_id, r.created_at desc, r.id desc`,
+      [ids],
+    ),
+  ]);
+  return { builds, trendRuns, tweaks, latestRuns: latest.rows };
+}

@@ -1,12 +1,15 @@
 import type { Build } from "@/db/queries/builds";
 import type { Design } from "@/db/queries/designs";
-import { listLayoutGroups, type LayoutFilter } from "@/db/queries/layouts";
+import { listCompareRows, listLayoutGroups, type LayoutFilter } from "@/db/queries/layouts";
 import { requirePermission } from "@/lib/auth/require-permission";
 import type { CurrentUser } from "@/lib/auth/current-user-type";
+import { NotFoundError } from "@/lib/errors";
+import { compareBuilds, type ComparedBuild } from "@/lib/layouts/build-comparison";
 import { calibratedPrediction, type CalibratedPrediction } from "@/lib/layouts/calibrated-prediction";
 import { CONSTRUCTION_KINDS, constructionKey, constructionName, constructionOf, type Construction } from "@/lib/layouts/construction";
 import { findLayoutFigure, layoutFigures, type FigureStrength, type LayoutFigure } from "@/lib/layouts/layout-figures";
 import type { Topology } from "@/lib/oscillator/design";
+import { isId } from "./context";
 import { getDesign } from "./designs";
 import { oscillatorDesign } from "./prediction";
 
@@ -110,4 +113,20 @@ export async function buildCalibration(user: CurrentUser | null, build: Build, d
   const figures = await listLayoutFigures(user, { topology: design.topology });
   const model = oscillatorDesign(design.topology, build.asBuilt, design.revision.extraCapacitanceF, design.revision.windings);
   return calibratedView(figures, design.topology, model, constructionOf(build.kind, build.kindRevision));
+}
+
+/**
+ * Builds side by side (anyone who can read the logbook): each one's newest analysed run against its prediction,
+ * THD and harmonics, and its implied-capacitance trend.
+ * @param buildIds - two or more build ids, in the order to show.
+ * @throws NotFoundError when one of the builds does not exist
+ */
+export async function getBuildComparison(user: CurrentUser | null, buildIds: readonly string[]): Promise<ComparedBuild[]> {
+  requirePermission(user, "read");
+  const ids = buildIds.filter(isId).map((id) => id.toLowerCase());
+  const rows = await listCompareRows(ids);
+  const known = new Set(rows.builds.map((b) => b.id));
+  const missing = buildIds.find((id) => !known.has(id.toLowerCase()));
+  if (missing !== undefined) throw new NotFoundError(`The build ${missing}`);
+  return compareBuilds(rows, ids);
 }

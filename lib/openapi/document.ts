@@ -6,6 +6,7 @@ import { SECURITY_SCHEMES, TAGS } from "./operation";
 import { registerAccountPaths } from "./paths/account";
 import { registerBuildPaths } from "./paths/builds";
 import { registerDesignPaths } from "./paths/designs";
+import { registerLayoutPaths } from "./paths/layouts";
 import { registerMetaPaths } from "./paths/meta";
 import { registerProjectPaths } from "./paths/projects";
 import { registerReviewPaths } from "./paths/reviews";
@@ -47,6 +48,7 @@ export function buildOpenApiDocument(): { document: OpenApiDocument; stale: stri
   registerRunPaths(registry);
   registerUploadPaths(registry);
   registerReviewPaths(registry);
+  registerLayoutPaths(registry);
   registerMetaPaths(registry);
 
   const components = [...namedSchemas.values()].map((schema) => ({ type: "schema" as const, schema }));

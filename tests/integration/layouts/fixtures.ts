@@ -148,7 +148,7 @@ export async function logAnalysedRun(
       attempt,
       {
         engineVersion: "test",
-        results: { frequencyHz: measuredHz, warnings, harmonics: [{ order: 2, dbc: -45 }, { order: 3, dbc: -52 }] },
+        results: { frequencyHz: measuredHz, warnings, harmonics: [{ order: 2, dBc: -45 }, { order: 3, dBc: -52 }] },
         plot: {},
         measuredHz,
         frequencyUncertaintyHz: 0.5,
