@@ -5,6 +5,7 @@ import { clientIp } from "@/lib/auth/client-ip";
 import { SESSION_COOKIE_NAME } from "@/lib/auth/lucia";
 import { signIn, signOut } from "@/lib/auth/sign-in";
 import { UnsupportedMediaTypeError, UnauthorizedError } from "@/lib/errors";
+import { ANONYMOUS_JSON_LIMITS, readLimitedJson } from "@/lib/http/json-body";
 import { problemFromError } from "@/lib/http/problem";
 import { signInSchema } from "@/lib/validations/auth";
 
@@ -20,7 +21,8 @@ export async function POST(request: Request): Promise<Response> {
     if (!(request.headers.get("content-type") ?? "").startsWith("application/json")) {
       throw new UnsupportedMediaTypeError("Send the e-mail and password as application/json.");
     }
-    const body = signInSchema.parse(await request.json().catch(() => ({})));
+    // Anyone can reach this route, so its body is capped small and read as a stream (see json-body.ts).
+    const body = signInSchema.parse(await readLimitedJson(request, ANONYMOUS_JSON_LIMITS));
     const previousSessionId = (await cookies()).get(SESSION_COOKIE_NAME)?.value ?? null;
     const { session, user } = await signIn(
       { email: body.email, password: body.password, previousSessionId },
