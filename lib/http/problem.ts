@@ -9,6 +9,7 @@ const titles: Record<number, string> = {
   409: "Conflict",
   413: "Payload too large",
   415: "Unsupported media type",
+  422: "Unprocessable content",
   429: "Too many requests",
   500: "Internal server error",
   503: "Service unavailable",

@@ -1,5 +1,6 @@
 import { randomUUID } from "node:crypto";
-import type { Readable } from "node:stream";
+import { Writable, type Readable } from "node:stream";
+import { pipeline } from "node:stream/promises";
 import { db } from "@/db/index";
 import { getBuild, getBuildForUpdate } from "@/db/queries/builds";
 import { getDesign } from "@/db/queries/designs";
@@ -14,11 +15,15 @@ import { analyseDrift, type DriftAnalysis } from "@/lib/oscillator";
 import { captureObjectKey, deleteObject, headObject, presignGet, putObject } from "@/lib/storage";
 import type { RunMetadata } from "@/lib/validations/run";
 import { checkCaptureFile, checkCaptureSize, formatBytes, meterStream, sha256OfObject, uploadLimitBytes } from "./capture-files";
+import { refuseUnreadableCapture } from "./capture-precheck";
 import { audit, isId, type Actor } from "./context";
 import { oscillatorDesign, runSnapshot } from "./prediction";
 
-/** What registering a capture did: a new run, or the run already logged from the same file on this build. */
-export type RegisterOutcome = { kind: "created"; run: q.Run } | { kind: "duplicate"; existing: q.Run };
+/**
+ * What registering a capture did: a new run, the run already logged from the same file on this build, or
+ * (`existing`) the run an earlier request with the same Idempotency-Key created.
+ */
+export type RegisterOutcome = { kind: "created"; run: q.Run } | { kind: "duplicate"; existing: q.Run } | { kind: "existing"; run: q.Run };
 
 export interface RegisterRunInput {
   /** The run's id, chosen by the server when the object key was made. */
@@ -41,6 +46,34 @@ export interface RegisterRunInput {
 }
 
 class IdempotencyRace extends Error {}
+
+/**
+ * Whether a retry under an Idempotency-Key asks for the same thing as the request that claimed it: same build,
+ * same file bytes and the same details. A key reused for another request is refused with 422, as the IETF
+ * draft "The Idempotency-Key HTTP Header Field" (draft-ietf-httpapi-idempotency-key-header, §2.7) advises,
+ * instead of silently answering with a run the client did not send.
+ * @throws AppError 422 when the request differs
+ */
+function assertSameRequest(first: q.Run, request: { buildId: string; sha256: string; meta: RunMetadata }): void {
+  const { meta } = request;
+  const same =
+    first.buildId === request.buildId &&
+    first.sha256 === request.sha256 &&
+    (first.channel ?? null) === (meta.channel ?? null) &&
+    first.probeAttenuation === meta.probe &&
+    first.supplyV === (meta.supplyV ?? null) &&
+    first.temperatureC === (meta.temperatureC ?? null) &&
+    first.note === meta.note &&
+    (first.tweakId ?? null) === (meta.tweakId ?? null);
+  if (!same) {
+    throw new AppError(
+      `This Idempotency-Key was already used for another upload (run ${first.id}); send a new key for a different file or different details.`,
+      422,
+      "idempotency-key-reused",
+      { "idempotency-key": ["used for a different request"] },
+    );
+  }
+}
 
 /** The run a user's earlier request with this Idempotency-Key created, if it is still there. */
 async function idempotentRun(userId: string, idempotencyKey: string): Promise<q.Run | null> {
@@ -72,6 +105,7 @@ export async function registerRun(actor: Actor, input: RegisterRunInput): Promis
     });
   }
   if (info.sizeBytes === 0) throw new BadRequestError("The file is empty.", { file: ["empty"] });
+  await refuseUnreadableCapture(input.objectKey, info.sizeBytes);
   const sha256 = input.sha256 ?? (await sha256OfObject(input.objectKey));
 
   try {
@@ -81,6 +115,16 @@ export async function registerRun(actor: Actor, input: RegisterRunInput): Promis
       if (!locked) throw new NotFoundError("The build");
       const already = await q.getRun(input.runId, trx);
       if (already) return { kind: "created", run: already };
+      // The key is looked at before the duplicate check: concurrent retries with one key queue on the build lock
+      // above, and each one after the first finds the key claimed and replays its run instead of being a 409.
+      if (input.idempotencyKey) {
+        const firstId = await getIdempotentRunId(user.id, input.idempotencyKey, trx);
+        const first = firstId ? await q.getRun(firstId, trx) : null;
+        if (first) {
+          assertSameRequest(first, { buildId: locked.id, sha256, meta: input.meta });
+          return { kind: "existing", run: first };
+        }
+      }
       const design = await getDesign(locked.designId, trx);
       if (!design) throw new NotFoundError("The design");
       if (input.meta.tweakId) {
@@ -127,7 +171,10 @@ export async function registerRun(actor: Actor, input: RegisterRunInput): Promis
   } catch (err) {
     if (err instanceof IdempotencyRace && input.idempotencyKey) {
       const first = await idempotentRun(user.id, input.idempotencyKey);
-      if (first) return { kind: "created", run: first };
+      if (first) {
+        assertSameRequest(first, { buildId: input.buildId, sha256, meta: input.meta });
+        return { kind: "existing", run: first };
+      }
     }
     throw err;
   }
@@ -144,7 +191,7 @@ export interface StreamUploadInput {
 }
 
 /** What a streamed upload did; `existing` is a retry answered with the first request's run. */
-export type StreamUploadOutcome = RegisterOutcome | { kind: "existing"; run: q.Run };
+export type StreamUploadOutcome = RegisterOutcome;
 
 /**
  * The API's multipart path: streams the file to storage (multipart, 8 MiB parts) while hashing and counting it,
@@ -164,7 +211,10 @@ export async function uploadRunFromStream(actor: Actor, input: StreamUploadInput
     if (input.idempotencyKey) {
       const first = await idempotentRun(user.id, input.idempotencyKey);
       if (first) {
-        input.stream.resume();
+        // A retry is hashed but not stored again, so a key reused for another file is still told apart.
+        const metered = meterStream(input.stream, uploadLimitBytes());
+        await pipeline(metered.stream, new Writable({ write: (_chunk, _enc, done) => done() }));
+        assertSameRequest(first, { buildId: build.id, sha256: metered.result().sha256, meta: await input.meta });
         return { kind: "existing", run: first };
       }
     }
