@@ -1,3 +1,4 @@
+import type { Knex } from "knex";
 import type { Role } from "@/lib/auth/permissions";
 import { db } from "../index";
 
@@ -40,6 +41,16 @@ export async function revokeApiTokenRow(userId: string, tokenId: string): Promis
     .update({ revoked_at: db().fn.now() })
     .returning(["name"]);
   return row?.name ?? null;
+}
+
+/**
+ * Revokes every live token of a user (password reset, sign out everywhere): whoever got in and made a token
+ * must not keep access once the owner has locked them out.
+ * @returns how many tokens were revoked
+ */
+export async function revokeAllApiTokenRows(userId: string, trx: Knex | Knex.Transaction = db()): Promise<number> {
+  const rows = await trx("api_tokens").where({ user_id: userId }).whereNull("revoked_at").update({ revoked_at: trx.fn.now() }).returning(["id"]);
+  return rows.length;
 }
 
 /**

@@ -1,4 +1,5 @@
 import { generateIdFromEntropySize, type Session } from "lucia";
+import { revokeAllApiTokenRows } from "@/db/queries/api-tokens";
 import { recordAudit } from "@/db/queries/audit";
 import { closePasswordResets, countRecentPasswordResets, createPasswordReset, getOpenPasswordReset } from "@/db/queries/password-resets";
 import { getUserByEmail, updatePasswordHash } from "@/db/queries/users";
@@ -57,7 +58,9 @@ export async function resetPassword(input: { token: string; password: string }, 
     await closePasswordResets(open.userId, trx);
     await updatePasswordHash(open.userId, passwordHash, trx);
     await trx("user_session").where({ user_id: open.userId }).delete();
-    await recordAudit({ actorId: open.userId, action: "password-reset.completed", entityType: "user", entityId: open.userId, ip: meta.ip }, trx);
+    // A reset is how an owner takes the account back: tokens made by whoever was in go with the sessions.
+    const tokensRevoked = await revokeAllApiTokenRows(open.userId, trx);
+    await recordAudit({ actorId: open.userId, action: "password-reset.completed", entityType: "user", entityId: open.userId, ip: meta.ip, detail: { tokensRevoked } }, trx);
     return open.userId;
   });
   if (!userId) throw new BadRequestError(RESET_LINK_INVALID_MESSAGE);

@@ -1,4 +1,5 @@
 import type { Session } from "lucia";
+import { revokeAllApiTokenRows } from "@/db/queries/api-tokens";
 import { recordAudit } from "@/db/queries/audit";
 import { recordSignInAttempt } from "@/db/queries/sign-in-attempts";
 import { getCredentialsByEmail } from "@/db/queries/users";
@@ -65,8 +66,13 @@ export async function signOut(sessionId: string, userId: string, meta: RequestMe
   await recordAudit({ actorId: userId, action: "sign-out", entityType: "user", entityId: userId, ip: meta.ip });
 }
 
-/** Ends every session of the user, on every device, and logs it. */
+/**
+ * Ends every session of the user, on every device, and revokes every API token, and logs it: "everywhere"
+ * includes bench scripts, or a token made by someone who got in would outlive the owner's clean-up
+ * (OWASP Session Management Cheat Sheet, "logout" terminates all credentials the user asks to end).
+ */
 export async function signOutEverywhere(userId: string, meta: RequestMeta): Promise<void> {
   await lucia().invalidateUserSessions(userId);
-  await recordAudit({ actorId: userId, action: "sign-out.everywhere", entityType: "user", entityId: userId, ip: meta.ip });
+  const tokensRevoked = await revokeAllApiTokenRows(userId);
+  await recordAudit({ actorId: userId, action: "sign-out.everywhere", entityType: "user", entityId: userId, ip: meta.ip, detail: { tokensRevoked } });
 }
