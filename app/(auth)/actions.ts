@@ -2,6 +2,7 @@
 
 import { cookies } from "next/headers";
 import { redirect } from "next/navigation";
+import { after } from "next/server";
 import { getCurrentSession, setSessionCookie, clearSessionCookie } from "@/lib/auth/current-user";
 import { acceptInvitation } from "@/lib/auth/invitations";
 import { SESSION_COOKIE_NAME } from "@/lib/auth/lucia";
@@ -29,11 +30,16 @@ export async function forgotPasswordAction(_prev: FormState, formData: FormData)
   const fields = formFields(formData);
   const parsed = forgotPasswordSchema.safeParse(fields);
   if (!parsed.success) return keepValues(invalidState(parsed.error), { email: fields.email });
-  try {
-    await requestPasswordReset(parsed.data.email, await requestMeta());
-  } catch (err) {
-    return keepValues(stateFromError(err), { email: fields.email });
-  }
+  // The lookup, the link and the e-mail run after the answer is sent (Next's after()), so a known address is
+  // answered as fast as an unknown one and the timing does not tell which addresses have accounts (OWASP
+  // Forgot Password Cheat Sheet: "consistent response time"). A mail failure is logged, not shown: showing it
+  // would tell the same thing.
+  const meta = await requestMeta();
+  after(() =>
+    requestPasswordReset(parsed.data.email, meta).catch((err: unknown) => {
+      console.error(`password reset e-mail not sent: ${err instanceof Error ? err.message : String(err)}`);
+    }),
+  );
   return {
     ok: true,
     message: `If ${parsed.data.email} belongs to an active account, a reset link is on its way. It works once, for one hour.`,
