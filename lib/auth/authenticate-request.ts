@@ -23,6 +23,15 @@ export function originAllowed(request: Request): boolean {
 }
 
 /**
+ * The credentials of an `Authorization: Bearer <token>` header, or null for another scheme or none. The scheme
+ * name is matched case-insensitively (RFC 9110 §11.1; RFC 6750 §2.1 uses the same rule), so `bearer` works too.
+ */
+export function bearerToken(authorization: string): string | null {
+  const match = /^bearer[ \t]+(\S+)[ \t]*$/i.exec(authorization);
+  return match ? match[1] : null;
+}
+
+/**
  * Who a route handler request acts for: `Authorization: Bearer <token>` (an API token, acting with its
  * owner's role) or else the session cookie. A Bearer header is never combined with the cookie.
  * @returns the user, or null for a missing, unknown, revoked or expired credential, a disabled user, or a
@@ -31,7 +40,7 @@ export function originAllowed(request: Request): boolean {
 export async function authenticateRequest(request: Request): Promise<CurrentUser | null> {
   const authorization = request.headers.get("authorization");
   if (authorization) {
-    const token = lucia().readBearerToken(authorization);
+    const token = bearerToken(authorization);
     return token ? authenticateApiToken(token) : null;
   }
   const sessionId = lucia().readSessionCookie(request.headers.get("cookie") ?? "");

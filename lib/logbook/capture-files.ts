@@ -19,7 +19,11 @@ export function uploadLimitBytes(): number {
 /** @throws PayloadTooLargeError naming both sizes */
 export function checkCaptureSize(sizeBytes: number, limit = uploadLimitBytes()): void {
   if (sizeBytes > limit) {
-    throw new PayloadTooLargeError(`The file is ${formatBytes(sizeBytes)}; captures can be up to ${formatBytes(limit)}.`);
+    // In bytes as well: rounded to three digits, 500,000,001 bytes reads "500 MB" and would contradict the limit.
+    const over = sizeBytes - limit;
+    throw new PayloadTooLargeError(
+      `The file is ${sizeBytes.toLocaleString("en-US")} bytes, ${over.toLocaleString("en-US")} byte${over === 1 ? "" : "s"} over the capture limit of ${formatBytes(limit)} (${limit.toLocaleString("en-US")} bytes).`,
+    );
   }
 }
 

@@ -10,6 +10,23 @@ export interface MultipartCapture {
   fields: Promise<Record<string, string>>;
 }
 
+/** Longest file name kept, in characters: the same cap upload slots put on names. */
+export const FILENAME_MAX_CHARS = 255;
+
+/**
+ * Why a file name (from `filename` or RFC 5987 `filename*`) cannot be stored, or null: NUL and lone UTF-16
+ * surrogates have no place in PostgreSQL text, and names longer than the slots' cap are refused rather than cut.
+ */
+export function filenameProblem(filename: string): string | null {
+  if (filename.includes("\u0000")) return "The file name contains the NUL character (U+0000).";
+  if (/[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/.test(filename)) {
+    return "The file name is not valid Unicode (it holds a lone surrogate).";
+  }
+  const length = [...filename].length;
+  if (length > FILENAME_MAX_CHARS) return `The file name is ${length} characters long; ${FILENAME_MAX_CHARS} at most. Rename the file and upload it again.`;
+  return null;
+}
+
 /**
  * Parses a multipart/form-data request with busboy as it arrives: the file field `fileField` is handed over as
  * a stream (never buffered), other files are drained, text fields are collected.
@@ -60,13 +77,20 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
         return;
       }
       fileSeen = true;
+      const filename = info.filename ?? "capture.csv";
+      const badName = filenameProblem(filename);
+      if (badName) {
+        stream.resume();
+        reject(new BadRequestError(badName, { [fileField]: [badName] }));
+        return;
+      }
       // The body can break off before the caller starts reading (it checks the build first): the failure is
       // kept on the stream it gets, as a 400, instead of surfacing as an uncaught error on busboy's stream.
       const out = new PassThrough();
       out.on("error", () => undefined);
       stream.on("error", (err) => out.destroy(malformed(err)));
       stream.pipe(out);
-      resolve({ stream: out, filename: info.filename ?? "capture.csv", mimeType: info.mimeType ?? "" });
+      resolve({ stream: out, filename, mimeType: info.mimeType ?? "" });
     });
     parser.on("close", () => {
       if (!fileSeen) reject(new BadRequestError(`No file in the field “${fileField}”.`, { [fileField]: ["missing"] }));

@@ -133,12 +133,20 @@ export const pageQuerySchema = z.object({
 });
 
 /** An ISO 8601 time in a query string. */
+const EARLIEST_TIME_MS = Date.UTC(1900, 0, 1);
+const LATEST_TIME_MS = Date.UTC(9999, 11, 31, 23, 59, 59, 999);
+
 export const optionalTimeField = (label: string) =>
   z.preprocess(
     blankToUndefined,
     z
       .string()
       .refine((v) => !Number.isNaN(Date.parse(v)), `${label} must be an ISO 8601 time such as 2026-12-01T09:30:00Z.`)
+      // JavaScript reads years up to ±275,760 that PostgreSQL's timestamptz cannot hold; a logbook needs far less.
+      .refine((v) => {
+        const ms = Date.parse(v);
+        return Number.isNaN(ms) || (ms >= EARLIEST_TIME_MS && ms <= LATEST_TIME_MS);
+      }, `${label} must lie between 1900-01-01 and 9999-12-31.`)
       .transform((v) => new Date(v))
       .optional(),
   );

@@ -24,9 +24,14 @@ export const GET = apiHandler<Params>({ action: "read" }, async (request, contex
 
   const encoder = new TextEncoder();
   const batches = iterateRunsForExport(buildId, filter);
+  // The first batch is read before the 200 goes out, so a filter the database refuses is still a problem answer
+  // rather than a file cut off after its header.
+  const first = await batches.next();
   const body = new ReadableStream<Uint8Array>({
     start(controller) {
       controller.enqueue(encoder.encode(runsCsvHeader()));
+      if (first.done) controller.close();
+      else controller.enqueue(encoder.encode(runsCsvRows(first.value)));
     },
     async pull(controller) {
       try {
