@@ -194,32 +194,32 @@ export function BuildsTable({
                   <Tr key={b.id}>
                     <Td>
                       <Link href={`/builds/${b.id}`} className="font-medium text-ink underline-offset-2 hover:text-copper hover:underline">
-                        {b.label}
+                        <bdi>{b.label}</bdi>
                       </Link>
                       <span className="block text-xs text-ink-faint">
                         {BUILD_KIND_NAMES[b.kind] ?? b.kind}
-                        {b.kindRevision ? ` ${b.kindRevision}` : ""} · {b.builtByName}
+                        {b.kindRevision ? ` ${b.kindRevision}` : ""} · <bdi>{b.builtByName}</bdi>
                       </span>
                       {showProject || showDesign ? (
                         <span className="block max-w-[11rem] truncate text-xs text-ink-soft md:hidden">
-                          {showProject ? `${b.projectName} › ` : ""}
-                          {b.designName}
+                          {showProject ? <><bdi>{b.projectName}</bdi> › </> : ""}
+                          <bdi>{b.designName}</bdi>
                         </span>
                       ) : null}
                     </Td>
                     {showProject ? (
                       <Td className="hidden text-sm md:table-cell">
                         <Link href={`/projects/${b.projectId}`} className="text-ink-soft hover:text-copper hover:underline">
-                          {b.projectName}
+                          <bdi>{b.projectName}</bdi>
                         </Link>
                         <Link href={`/projects/${b.projectId}/designs/${b.designId}`} className="block text-ink hover:text-copper hover:underline">
-                          {b.designName}
+                          <bdi>{b.designName}</bdi>
                         </Link>
                       </Td>
                     ) : showDesign ? (
                       <Td className="hidden text-sm md:table-cell">
                         <Link href={`/projects/${b.projectId}/designs/${b.designId}`} className="text-ink hover:text-copper hover:underline">
-                          {b.designName}
+                          <bdi>{b.designName}</bdi>
                         </Link>
                       </Td>
                     ) : null}

@@ -28,15 +28,15 @@ export function AttentionList({ builds, total }: { builds: AttentionBuild[]; tot
               <div className="flex flex-wrap items-start justify-between gap-2">
                 <div className="min-w-0">
                   <Link href={`/builds/${b.id}`} className="font-semibold text-ink hover:text-copper hover:underline">
-                    {b.label}
+                    <bdi>{b.label}</bdi>
                   </Link>
                   <p className="truncate text-xs text-ink-faint">
                     <Link href={`/projects/${b.projectId}`} className="hover:underline">
-                      {b.projectName}
+                      <bdi>{b.projectName}</bdi>
                     </Link>{" "}
                     ›{" "}
                     <Link href={`/projects/${b.projectId}/designs/${b.designId}`} className="hover:underline">
-                      {b.designName}
+                      <bdi>{b.designName}</bdi>
                     </Link>
                   </p>
                 </div>

@@ -33,16 +33,16 @@ export function LatestRunsTable({ runs, emptyHint }: { runs: DashboardRun[]; emp
               <Td>
                 <span className="num block whitespace-nowrap font-mono text-[12px] text-ink-soft">{formatDateTime(r.createdAt)}</span>
                 <Link href={`/runs/${r.id}`} className="block max-w-[14rem] truncate text-sm text-ink hover:text-copper hover:underline">
-                  {r.originalFilename}
+                  <bdi>{r.originalFilename}</bdi>
                 </Link>
-                <span className="block text-[11px] text-ink-faint">by {r.createdByName}</span>
+                <span className="block text-[11px] text-ink-faint">by <bdi>{r.createdByName}</bdi></span>
               </Td>
               <Td className="text-sm">
                 <Link href={`/builds/${r.buildId}`} className="font-medium text-ink hover:text-copper hover:underline">
-                  {r.buildLabel}
+                  <bdi>{r.buildLabel}</bdi>
                 </Link>
                 <span className="block max-w-[12rem] truncate text-xs text-ink-faint">
-                  {r.projectName} › {r.designName}
+                  <bdi>{r.projectName}</bdi> › <bdi>{r.designName}</bdi>
                 </span>
               </Td>
               <Td numeric className="whitespace-nowrap">

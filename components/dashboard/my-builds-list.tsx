@@ -26,10 +26,10 @@ export function MyBuildsList({ builds }: { builds: BuildTableRow[] }) {
             <Tr key={b.id}>
               <Td>
                 <Link href={`/builds/${b.id}`} className="font-medium text-ink hover:text-copper hover:underline">
-                  {b.label}
+                  <bdi>{b.label}</bdi>
                 </Link>
                 <span className="block max-w-[14rem] truncate text-xs text-ink-faint">
-                  {b.projectName} › {b.designName}
+                  <bdi>{b.projectName}</bdi> › <bdi>{b.designName}</bdi>
                 </span>
               </Td>
               <Td>
