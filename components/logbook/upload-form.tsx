@@ -2,15 +2,15 @@
 
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useEffect, useId, useRef, useState, type DragEvent } from "react";
+import { useEffect, useId, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, FormMessage, Input, Select, Textarea, describedBy } from "@/components/ui/field";
-import { ProgressBar } from "@/components/ui/progress-bar";
-import { decodeCaptureStart, sniffCaptureHeader, SNIFF_BYTES, type SniffedHeader } from "@/lib/capture-sniff/sniff-header";
-import { formatBytes, formatDuration, formatRate } from "@/lib/format/bytes";
+import { formatBytes } from "@/lib/format/bytes";
 import { formatDateTime } from "@/lib/format/dates";
-import { cn } from "@/lib/utils";
 import { putWithProgress, UploadCancelledError, type UploadHandle, type UploadProgress } from "./put-with-progress";
+import { UploadFilePicker } from "./upload-file-picker";
+import { PrecheckSummary, useCapturePrecheck } from "./upload-precheck";
+import { UploadProgressPanel } from "./upload-progress";
 import type { DuplicateRun, RegisterResult, RunRegistration, TweakChoice, UploadRequest, UploadSlotResult } from "./upload-types";
 
 export interface UploadFormProps {
@@ -33,8 +33,6 @@ type Phase =
   | { kind: "duplicate"; slotId: string; registration: RunRegistration; duplicate: DuplicateRun }
   | { kind: "done"; runId: string };
 
-type Sniff = { state: "none" } | { state: "reading" } | { state: "ok"; header: SniffedHeader } | { state: "problem"; message: string };
-
 function numberOrNull(text: string): number | null | "bad" {
   const t = text.trim().replace(",", ".");
   if (t === "") return null;
@@ -43,8 +41,9 @@ function numberOrNull(text: string): number | null | "bad" {
 }
 
 /**
- * The capture upload: pick or drop a CSV, choose the channel from the columns found in its first 64 kB, say how it
- * was measured, then the file goes straight to storage with real progress, and the run is registered.
+ * The capture upload: pick or drop a CSV, which is checked in the browser by the server's own rules (a file
+ * Tankbook cannot read is refused before uploading); choose the channel from the columns found in its first 64 kB,
+ * say how it was measured, then the file goes straight to storage with real progress, and the run is registered.
  */
 export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, registerRun, cancelUpload, maxBytes }: UploadFormProps) {
   const router = useRouter();
@@ -53,8 +52,7 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
   const inputRef = useRef<HTMLInputElement>(null);
   const uploadRef = useRef<UploadHandle | null>(null);
   const [file, setFile] = useState<File | null>(null);
-  const [sniff, setSniff] = useState<Sniff>({ state: "none" });
-  const [dragging, setDragging] = useState(false);
+  const { precheck, check } = useCapturePrecheck();
   const [phase, setPhase] = useState<Phase>({ kind: "idle" });
   const [message, setMessage] = useState<string | null>(null);
   const [errors, setErrors] = useState<Record<string, string[]>>({});
@@ -79,37 +77,8 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
     setPhase({ kind: "idle" });
     setFile(next);
     setChannel("");
-    if (!next) {
-      setSniff({ state: "none" });
-      return;
-    }
-    setSniff({ state: "reading" });
-    try {
-      // Only the start of the file is read here; the upload itself streams the File from disk.
-      const bytes = new Uint8Array(await next.slice(0, SNIFF_BYTES).arrayBuffer());
-      const decoded = decodeCaptureStart(bytes);
-      if (!decoded.ok) {
-        setSniff({ state: "problem", message: decoded.message });
-        return;
-      }
-      const result = sniffCaptureHeader(decoded.text, next.size <= SNIFF_BYTES);
-      if (result.ok) {
-        setSniff({ state: "ok", header: result.header });
-        setChannel(result.header.channels[0]?.name ?? "");
-      } else {
-        setSniff({ state: "problem", message: result.message });
-      }
-    } catch {
-      setSniff({ state: "problem", message: "The file could not be read. Choose it again." });
-    }
-  }
-
-  function onDrop(event: DragEvent<HTMLDivElement>) {
-    event.preventDefault();
-    setDragging(false);
-    if (busy) return;
-    const dropped = event.dataTransfer.files?.[0];
-    if (dropped) void choose(dropped);
+    const header = await check(next);
+    if (header) setChannel(header.channels[0]?.name ?? "");
   }
 
   function readRegistration(): RunRegistration | null {
@@ -165,6 +134,11 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
       setErrors({ file: ["Choose a capture CSV first."] });
       return;
     }
+    if (precheck.state === "reading") return;
+    if (precheck.state === "problem") {
+      setErrors({ file: ["Choose a capture Tankbook can read: this file is refused (see why below)."] });
+      return;
+    }
     if (maxBytes !== undefined && file.size > maxBytes) {
       setErrors({ file: [`This file is ${formatBytes(file.size)}; the largest capture accepted is ${formatBytes(maxBytes)}.`] });
       return;
@@ -208,7 +182,6 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
   }
 
   const progress = phase.kind === "uploading" ? phase.progress : null;
-  const fraction = progress && progress.totalBytes > 0 ? progress.loadedBytes / progress.totalBytes : 0;
 
   return (
     <form
@@ -221,67 +194,20 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
     >
       <FormMessage message={message} />
 
-      <div
-        onDragOver={(event) => {
-          event.preventDefault();
-          if (!busy) setDragging(true);
-        }}
-        onDragLeave={() => setDragging(false)}
-        onDrop={onDrop}
-        className={cn(
-          "rounded-lg border-2 border-dashed px-4 py-5 text-center transition-colors focus-within:border-copper focus-within:ring-2 focus-within:ring-copper/40",
-          dragging ? "border-copper bg-copper-light/60" : "border-rule-strong bg-paper",
-          errors.file && "border-verdict-fail",
-        )}
-      >
-        <input
-          ref={inputRef}
-          id={id("file")}
-          type="file"
-          accept=".csv,.txt,.tsv,text/csv,text/plain"
-          className="sr-only"
-          disabled={busy}
-          aria-describedby={describedBy(id("file"))}
-          aria-invalid={errors.file ? true : undefined}
-          onChange={(event) => void choose(event.target.files?.[0] ?? null)}
-        />
-        {file ? (
-          <div className="space-y-1">
-            <p className="break-all font-medium text-ink">{file.name}</p>
-            <p className="num font-mono text-xs text-ink-soft">{formatBytes(file.size)}</p>
-          </div>
-        ) : (
-          <p className="text-sm text-ink-soft">
-            <span aria-hidden="true" className="mr-1">⇪</span>
-            Drop a capture CSV here, or
-          </p>
-        )}
-        <label
-          htmlFor={id("file")}
-          className={cn(
-            "mt-3 inline-flex h-9 cursor-pointer items-center rounded-md border border-rule-strong bg-paper-raised px-3.5 text-sm font-medium text-ink hover:bg-paper-sunk",
-            busy && "pointer-events-none opacity-50",
-          )}
-        >
-          {file ? "Choose another file" : "Choose a file"}
-        </label>
-        <div id={`${id("file")}-hint`} className="mt-2 text-xs text-ink-faint">
-          CSV from the scope: an optional preamble, a header row naming the columns (e.g. Time (s), Out (V)), then the
-          samples. Large files are fine{maxBytes ? ` (up to ${formatBytes(maxBytes)})` : ""}.
-        </div>
-        <div id={`${id("file")}-error`} aria-live="polite">
-          {errors.file?.map((e) => (
-            <p key={e} className="mt-1 text-xs font-medium text-verdict-fail">
-              {e}
-            </p>
-          ))}
-        </div>
-      </div>
+      <UploadFilePicker
+        id={id("file")}
+        inputRef={inputRef}
+        file={file}
+        disabled={busy}
+        errors={errors.file}
+        maxBytes={maxBytes}
+        onChoose={(next) => void choose(next)}
+      />
 
-      <SniffSummary sniff={sniff} />
+      <PrecheckSummary precheck={precheck} id={id("precheck")} />
 
       <div className="grid gap-4 sm:grid-cols-2">
-        {sniff.state === "ok" ? (
+        {precheck.state === "ok" ? (
           <Field id={id("channel")} label="Channel to analyse" hint="The voltage columns found in the file's header.">
             <Select
               id={id("channel")}
@@ -290,7 +216,7 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
               disabled={busy}
               aria-describedby={describedBy(id("channel"))}
             >
-              {sniff.header.channels.map((c) => (
+              {precheck.header.channels.map((c) => (
                 <option key={c.index} value={c.name}>
                   {c.header}
                 </option>
@@ -397,21 +323,7 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
         </Field>
       </div>
 
-      {phase.kind === "uploading" && progress ? (
-        <div className="space-y-2 rounded-lg border border-rule bg-paper px-3 py-3" aria-live="polite">
-          <ProgressBar value={fraction} label="Upload progress" />
-          <div className="num flex flex-wrap items-center justify-between gap-x-4 gap-y-1 font-mono text-xs text-ink-soft">
-            <span>
-              <strong className="text-ink">{(fraction * 100).toFixed(1)} %</strong> · {formatBytes(progress.loadedBytes)} of{" "}
-              {formatBytes(progress.totalBytes)}
-            </span>
-            <span>
-              {progress.bytesPerSecond > 0 ? formatRate(progress.bytesPerSecond) : "measuring speed…"}
-              {progress.secondsLeft !== null ? ` · ${formatDuration(progress.secondsLeft)} left` : ""}
-            </span>
-          </div>
-        </div>
-      ) : null}
+      {phase.kind === "uploading" && progress ? <UploadProgressPanel progress={progress} /> : null}
 
       {phase.kind === "registering" ? (
         <p role="status" className="text-sm text-ink-soft">
@@ -466,7 +378,12 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
             Cancel upload
           </Button>
         ) : (
-          <Button key="submit" type="submit" disabled={busy || !file || phase.kind === "duplicate" || phase.kind === "done"}>
+          <Button
+            key="submit"
+            type="submit"
+            disabled={busy || !file || precheck.state !== "ok" || phase.kind === "duplicate" || phase.kind === "done"}
+            aria-describedby={precheck.state === "problem" ? id("precheck") : undefined}
+          >
             Upload and analyse
           </Button>
         )}
@@ -483,35 +400,5 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
         ) : null}
       </div>
     </form>
-  );
-}
-
-function SniffSummary({ sniff }: { sniff: Sniff }) {
-  if (sniff.state === "none") return null;
-  if (sniff.state === "reading") {
-    return (
-      <p role="status" className="text-xs text-ink-soft">
-        Reading the header…
-      </p>
-    );
-  }
-  if (sniff.state === "problem") {
-    return (
-      <p role="alert" className="rounded-md border border-verdict-warn/50 bg-verdict-warnBg px-3 py-2 text-sm text-ink">
-        <span aria-hidden="true" className="mr-1 font-semibold text-verdict-warn">!</span>
-        {sniff.message} You can still upload it; the analysis will say exactly what it cannot read.
-      </p>
-    );
-  }
-  const h = sniff.header;
-  const delimiterName = h.delimiter === "," ? "comma" : h.delimiter === ";" ? "semicolon" : "tab";
-  const preambleCount = Object.keys(h.preamble).length;
-  return (
-    <p role="status" className="text-xs text-ink-soft">
-      <span aria-hidden="true" className="mr-1 text-verdict-pass">✓</span>
-      Header on line {h.headerLine}, {h.columns.length} columns ({delimiterName}-separated)
-      {h.timeColumn ? `, time in “${h.timeColumn.header}”` : ", no time column (the preamble must give the sample rate)"}
-      {preambleCount > 0 ? `, ${preambleCount} preamble line${preambleCount === 1 ? "" : "s"}` : ""}.
-    </p>
   );
 }

@@ -110,61 +110,65 @@ export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [], 
           is already the nearest {s.series} value: no single swap gets closer to the target.
         </p>
       )}
-      <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-        <dt className="text-ink-soft">Predicted after</dt>
-        <dd className="num text-right font-mono text-[13px] text-ink">{formatQuantity(s.predictedHz, "Hz", 6)}</dd>
-        <dt className="text-ink-soft">Off the target by</dt>
-        <dd className="num text-right font-mono text-[13px] text-ink">
-          {formatQuantity(s.errorHz, "Hz", 3, { signed: true })} · {formatPercent(s.errorPercent, 2, { signed: true })}
-        </dd>
-        <dt className="text-ink-soft">Worst-case band</dt>
-        <dd className="num text-right font-mono text-[13px] text-ink">{formatRange(s.worstCase.minHz, s.worstCase.maxHz, "Hz", 5)}</dd>
-        <dt className="text-ink-soft">Statistical band</dt>
-        <dd className="num text-right font-mono text-[13px] text-ink">{formatRange(s.statistical.minHz, s.statistical.maxHz, "Hz", 5)}</dd>
-        {s.feedbackFraction !== null ? (
-          <>
-            <dt className="text-ink-soft">Feedback fraction β</dt>
+      {s.onTarget ? null : (
+        <>
+          <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+            <dt className="text-ink-soft">Predicted after</dt>
+            <dd className="num text-right font-mono text-[13px] text-ink">{formatQuantity(s.predictedHz, "Hz", 6)}</dd>
+            <dt className="text-ink-soft">Off the target by</dt>
             <dd className="num text-right font-mono text-[13px] text-ink">
-              {s.changed ? (
-                <>
-                  {ratio(s.feedbackFractionBefore)} <span aria-hidden="true">→</span>
-                  <span className="sr-only">becomes</span> {ratio(s.feedbackFraction)}
-                </>
-              ) : (
-                ratio(s.feedbackFraction)
-              )}
+              {formatQuantity(s.errorHz, "Hz", 3, { signed: true })} · {formatPercent(s.errorPercent, 2, { signed: true })}
             </dd>
-            <dt className="text-ink-soft">Minimum gain to start</dt>
-            <dd className="num text-right font-mono text-[13px] text-ink">
-              {s.changed ? (
-                <>
-                  {ratio(s.minGainBefore)} × <span aria-hidden="true">→</span>
-                  <span className="sr-only">becomes</span> {ratio(s.minGain)} ×
-                </>
-              ) : (
-                `${ratio(s.minGain)} ×`
-              )}
-            </dd>
-          </>
-        ) : null}
-        {s.idealSi !== null ? (
-          <>
-            <dt className="text-ink-soft">Exact value for the target</dt>
-            <dd className="num text-right font-mono text-[13px] text-ink">{formatPartValue(s.idealSi, s.unit, 4)}</dd>
-          </>
-        ) : null}
-      </dl>
-      {s.changed && s.startupWarning ? (
-        <Warning>
-          <strong className="font-semibold">Less start-up margin.</strong> {s.startupWarning}.
-        </Warning>
-      ) : null}
-      <p className="text-xs text-ink-soft">
-        <span aria-hidden="true">{targetInWorst ? "✓ " : "! "}</span>
-        {targetInWorst
-          ? `The ${formatQuantity(s.targetHz, "Hz", 6)} target lies inside the worst-case band: parts within tolerance can land on it.`
-          : `The ${formatQuantity(s.targetHz, "Hz", 6)} target lies outside the worst-case band: even perfect parts of this value miss it.`}
-      </p>
+            <dt className="text-ink-soft">Worst-case band</dt>
+            <dd className="num text-right font-mono text-[13px] text-ink">{formatRange(s.worstCase.minHz, s.worstCase.maxHz, "Hz", 5)}</dd>
+            <dt className="text-ink-soft">Statistical band</dt>
+            <dd className="num text-right font-mono text-[13px] text-ink">{formatRange(s.statistical.minHz, s.statistical.maxHz, "Hz", 5)}</dd>
+            {s.feedbackFraction !== null ? (
+              <>
+                <dt className="text-ink-soft">Feedback fraction β</dt>
+                <dd className="num text-right font-mono text-[13px] text-ink">
+                  {s.changed ? (
+                    <>
+                      {ratio(s.feedbackFractionBefore)} <span aria-hidden="true">→</span>
+                      <span className="sr-only">becomes</span> {ratio(s.feedbackFraction)}
+                    </>
+                  ) : (
+                    ratio(s.feedbackFraction)
+                  )}
+                </dd>
+                <dt className="text-ink-soft">Minimum gain to start</dt>
+                <dd className="num text-right font-mono text-[13px] text-ink">
+                  {s.changed ? (
+                    <>
+                      {ratio(s.minGainBefore)} × <span aria-hidden="true">→</span>
+                      <span className="sr-only">becomes</span> {ratio(s.minGain)} ×
+                    </>
+                  ) : (
+                    `${ratio(s.minGain)} ×`
+                  )}
+                </dd>
+              </>
+            ) : null}
+            {s.idealSi !== null ? (
+              <>
+                <dt className="text-ink-soft">Exact value for the target</dt>
+                <dd className="num text-right font-mono text-[13px] text-ink">{formatPartValue(s.idealSi, s.unit, 4)}</dd>
+              </>
+            ) : null}
+          </dl>
+          {s.changed && s.startupWarning ? (
+            <Warning>
+              <strong className="font-semibold">Less start-up margin.</strong> {s.startupWarning}.
+            </Warning>
+          ) : null}
+          <p className="text-xs text-ink-soft">
+            <span aria-hidden="true">{targetInWorst ? "✓ " : "! "}</span>
+            {targetInWorst
+              ? `The ${formatQuantity(s.targetHz, "Hz", 6)} target lies inside the worst-case band: parts within tolerance can land on it.`
+              : `The ${formatQuantity(s.targetHz, "Hz", 6)} target lies outside the worst-case band: even perfect parts of this value miss it.`}
+          </p>
+        </>
+      )}
       {seriesLinks.length > 1 ? (
         <nav aria-label="E-series for the suggestion" className="flex flex-wrap items-center gap-1 text-xs">
           <span className="text-ink-faint">Series:</span>

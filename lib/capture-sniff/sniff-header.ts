@@ -5,9 +5,17 @@
  * The rules follow the analysis importer (lib/analysis/csv-import.ts) so the form offers what the worker will
  * accept: optional preamble `key,value` lines, one header row, then numeric rows; comma, semicolon or tab
  * delimiters; quoted cells; a UTF-8 byte-order mark; CRLF or LF. Column cells are read by the importer's own
- * {@link parseColumnHeader}. This is a preview only; the worker's import is what decides.
+ * {@link parseColumnHeader}, and once the header is found the lines up to the first data row go through the
+ * importer itself ({@link CaptureImporter}), so every refusal the importer makes of a header (an unknown time unit,
+ * no voltage column, no clock) is made here too, in its words. The server runs the same check on the stored file's
+ * first bytes before a run exists (lib/logbook/capture-precheck.ts). Rows are not judged here: a bad value further
+ * down stays the analysis's finding, reported on its line in a failed run.
  */
 import { parseColumnHeader, type CaptureColumn } from "@/lib/analysis/columns";
+import { CaptureImporter } from "@/lib/analysis/csv-import";
+import { CaptureImportError } from "@/lib/analysis/errors";
+import { formatSampleRate } from "@/lib/analysis/format-rate";
+import { findPreambleTiming } from "@/lib/analysis/preamble";
 import {
   guessDelimiter,
   isNumericLine,
@@ -46,9 +54,34 @@ export interface SniffedHeader {
   preamble: Record<string, string>;
   /** The first data row's cells, for a preview line. */
   firstRow: string[];
+  /** Without a time column: the preamble line that gives the clock, and the rate it gives ("1 MS/s"). */
+  preambleClock?: { key: string; sampleRate: string };
 }
 
 export type SniffResult = { ok: true; header: SniffedHeader } | { ok: false; message: string };
+
+/** An importer message as a sentence: "line 3: no voltage column…" → "Line 3: no voltage column….". */
+function sentence(message: string): string {
+  const text = message.charAt(0).toUpperCase() + message.slice(1);
+  return /[.?!]$/.test(text) ? text : `${text}.`;
+}
+
+/**
+ * What the importer says about the start of a capture: null when it reads the header, else its refusal.
+ * @param text - the lines up to and including the first data row (or a whole file without one)
+ * @param complete - `text` is the whole file, so the importer also finishes (a header with no rows after it)
+ */
+export function importerRefusal(text: string, complete: boolean): string | null {
+  const importer = new CaptureImporter();
+  try {
+    importer.push(new TextEncoder().encode(text));
+    if (complete) importer.finish();
+    return null;
+  } catch (err) {
+    if (err instanceof CaptureImportError) return sentence(err.message);
+    throw err;
+  }
+}
 
 function readColumn(cell: string, index: number, lineNumber: number): SniffedColumn {
   if (cell === "") return { index, header: "", name: "", unit: "", kind: "other" };
@@ -85,6 +118,9 @@ export function sniffCaptureHeader(text: string, complete = false): SniffResult 
 
   const firstDataIndex = lines.findIndex((line) => line.text.trim() !== "" && isNumericLine(line.text));
   if (firstDataIndex < 0) {
+    // A whole file that names columns but holds no numbers is a header-only export: the importer words it.
+    const refusal = complete && lines.some((line) => namesAColumn(line.text)) ? importerRefusal(body, true) : null;
+    if (refusal) return { ok: false, message: refusal };
     return {
       ok: false,
       message: complete
@@ -130,6 +166,14 @@ export function sniffCaptureHeader(text: string, complete = false): SniffResult 
       message: `No voltage column in the header "${headerLine.text.trim()}": name a column with a unit of V or mV.`,
     };
   }
+  const headText = lines
+    .slice(0, firstDataIndex + 1)
+    .map((line) => `${line.text}\n`)
+    .join("");
+  const refusal = importerRefusal(headText, false);
+  if (refusal) return { ok: false, message: refusal };
+  const timeColumn = columns.find((column) => column.kind === "time");
+  const timing = timeColumn ? undefined : findPreambleTiming(preamble);
   return {
     ok: true,
     header: {
@@ -137,11 +181,24 @@ export function sniffCaptureHeader(text: string, complete = false): SniffResult 
       headerLine: headerLine.lineNumber,
       columns,
       channels,
-      timeColumn: columns.find((column) => column.kind === "time"),
+      timeColumn,
       preamble,
       firstRow: dataCells,
+      ...(timing ? { preambleClock: { key: timing.key, sampleRate: formatSampleRate(1 / timing.sampleIntervalS) } } : {}),
     },
   };
+}
+
+/**
+ * The whole pre-check of a capture's first bytes, as the upload form and the server both run it: the text
+ * encoding, then {@link sniffCaptureHeader} (which runs the importer's own rules).
+ * @param bytes - the file's first {@link SNIFF_BYTES} bytes, or all of it
+ * @param complete - `bytes` is the whole file
+ */
+export function checkCaptureStart(bytes: Uint8Array, complete: boolean): SniffResult {
+  const decoded = decodeCaptureStart(bytes);
+  if (!decoded.ok) return decoded;
+  return sniffCaptureHeader(decoded.text, complete);
 }
 
 /**
