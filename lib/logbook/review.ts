@@ -249,7 +249,8 @@ function toleranceHzOf(spec: { toleranceValue?: number | null; toleranceUnit?: s
  * The single standard-value change that brings the build nearest its target, computed by lib/oscillator from the
  * latest analysed run (its parts, the capacitance its measurement implies, the spec's target at that run).
  * @returns null when there is no analysed run, no measured frequency, or the spec has no target frequency
- * @throws RangeError from lib/oscillator when the stored design cannot be retuned
+ * @throws ConflictError carrying lib/oscillator's reason when the stored values cannot be retuned (outside the bench
+ *   limits, no realisable tank)
  */
 export async function getRetuneSuggestion(buildId: string, options: { series?: ESeriesName } = {}, trx: Knex | Knex.Transaction = db()): Promise<BuildRetune | null> {
   if (!isId(buildId)) return null;
@@ -259,15 +260,22 @@ export async function getRetuneSuggestion(buildId: string, options: { series?: E
   const targetHz = run?.snapshot.spec?.targetHz;
   if (!run || !run.measuredHz || !targetHz) return null;
   const { snapshot } = run;
-  const suggestion = suggestRetune(
-    {
-      topology: snapshot.topology,
-      parts: snapshot.parts,
-      ...(snapshot.extraCapacitanceF !== null ? { extraCapacitanceF: snapshot.extraCapacitanceF } : {}),
-      ...(snapshot.windings ? { windings: snapshot.windings } : {}),
-    },
-    { targetHz, measuredHz: run.measuredHz, series: options.series ?? "E12", targetToleranceHz: toleranceHzOf(snapshot.spec, targetHz) },
-  );
+  let suggestion: RetuneSuggestion;
+  try {
+    suggestion = suggestRetune(
+      {
+        topology: snapshot.topology,
+        parts: snapshot.parts,
+        ...(snapshot.extraCapacitanceF !== null ? { extraCapacitanceF: snapshot.extraCapacitanceF } : {}),
+        ...(snapshot.windings ? { windings: snapshot.windings } : {}),
+      },
+      { targetHz, measuredHz: run.measuredHz, series: options.series ?? "E12", targetToleranceHz: toleranceHzOf(snapshot.spec, targetHz) },
+    );
+  } catch (err) {
+    // Values stored before the bench limits (a 1e30 Hz target) are the data's problem, not a server fault.
+    if (err instanceof RangeError) throw new ConflictError(`The retune cannot be computed for this run: ${err.message}.`);
+    throw err;
+  }
   return {
     run: { id: run.id, originalFilename: run.originalFilename, createdAt: run.createdAt, measuredHz: run.measuredHz },
     suggestion,
