@@ -2,6 +2,7 @@ import Link from "next/link";
 import { TOPOLOGY_NAMES } from "@/components/logbook/design-model";
 import { Card, CardBody, CardHeader } from "@/components/ui/card";
 import { Table, Td, Th, Tr } from "@/components/ui/data-table";
+import { MAX_COMPARED_BUILDS } from "@/lib/layouts/build-comparison";
 import { MIN_BUILDS_FOR_TRUST, type LayoutFigure } from "@/lib/layouts/layout-figures";
 import { FigureStrengthBadge } from "./figure-strength-badge";
 import { inductanceErrorText, picofaradFigure, picofaradSpread } from "./figure-format";
@@ -140,7 +141,17 @@ export function LayoutFigureCard({ figure, buildLimit, moreHref }: LayoutFigureC
                 </Link>
               </p>
             ) : null}
-            <p className="text-xs text-ink-soft">Runs / T: trusted runs and the tweaks between them. Each number opens its build.</p>
+            <p className="text-xs text-ink-soft">
+              Runs / T: trusted runs and the tweaks between them. Each number opens its build.
+              {figure.builds.length >= 2 ? (
+                <>
+                  {" "}
+                  <Link className="text-copper underline" href={`/builds/compare?ids=${figure.builds.slice(0, MAX_COMPARED_BUILDS).map((b) => b.buildId).join(",")}`}>
+                    Compare these builds
+                  </Link>
+                </>
+              ) : null}
+            </p>
           </>
         )}
       </CardBody>

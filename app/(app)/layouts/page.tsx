@@ -8,6 +8,7 @@ import { Select } from "@/components/ui/field";
 import { PageHeader } from "@/components/ui/page-header";
 import { requireUser } from "@/lib/auth/current-user";
 import { CONSTRUCTION_KINDS, constructionName } from "@/lib/layouts/construction";
+import { MAX_COMPARED_BUILDS } from "@/lib/layouts/build-comparison";
 import { MIN_BUILDS_FOR_TRUST } from "@/lib/layouts/layout-figures";
 import { listLayoutFigures } from "@/lib/logbook/layouts";
 import { TOPOLOGIES } from "@/lib/oscillator/design";
@@ -32,6 +33,11 @@ export default async function LayoutsPage({ searchParams }: Search) {
   const figures = await listLayoutFigures(user, { kind, topology });
   const narrowed = Boolean(kind && topology);
   const filtered = Boolean(kind || topology);
+  // The build closest to each figure's median stands for its construction in a side-by-side comparison.
+  const across = figures
+    .filter((f) => f.capacitanceF.median !== null)
+    .map((f) => [...f.builds].sort((a, b) => Math.abs(a.typicalF - f.capacitanceF.median!) - Math.abs(b.typicalF - f.capacitanceF.median!))[0].buildId)
+    .slice(0, MAX_COMPARED_BUILDS);
 
   return (
     <>
@@ -103,6 +109,14 @@ export default async function LayoutsPage({ searchParams }: Search) {
         )
       ) : (
         <div className="space-y-5">
+          {across.length >= 2 ? (
+            <p className="text-sm">
+              <Link className="text-copper underline" href={`/builds/compare?ids=${across.join(",")}`}>
+                Compare one build of each construction
+              </Link>{" "}
+              <span className="text-ink-soft">(the build nearest each figure&apos;s median, side by side)</span>
+            </p>
+          ) : null}
           {figures.map((f) => (
             <LayoutFigureCard
               key={`${f.constructionKey}-${f.topology}`}
