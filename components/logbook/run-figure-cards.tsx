@@ -29,13 +29,37 @@ function thdTile(figures: RunFigures): { value: string; detail: string; note?: s
   return { value: thd.percent, detail: [thd.db, over].filter(Boolean).join(" · "), note: sinad };
 }
 
-function uncertaintyNote(figures: RunFigures): string | undefined {
-  if (figures.frequencyNoiseHz === null) return "statistical; the scope's timebase is not in it";
-  if (figures.frequencyNoiseHz > 0) return `includes ${formatQuantity(figures.frequencyNoiseHz, "Hz", 2)} of oscillator frequency noise; not the scope's timebase`;
-  return "statistical; the scope's timebase is not in it";
+/**
+ * The frequency's 1σ as the page states it: the statistical figure, and with the build's timebase accuracy (taken as
+ * a 1σ figure, common practice for a data-sheet "± ppm") root-sum-squared in for the absolute total.
+ */
+function uncertaintyText(figures: RunFigures, timebasePpm: number | null): { detail: string; note: string } {
+  const f = formatWithUncertainty(figures.frequencyHz, figures.frequencyUncertaintyHz, "Hz");
+  const noise = figures.frequencyNoiseHz !== null && figures.frequencyNoiseHz > 0 ? `, incl. ${formatQuantity(figures.frequencyNoiseHz, "Hz", 2)} oscillator frequency noise` : "";
+  if (figures.frequencyHz === null || figures.frequencyUncertaintyHz === null) return { detail: "uncertainty not given", note: "" };
+  if (timebasePpm === null) {
+    return { detail: `${f.uncertainty} (1σ statistical)`, note: `the scope's timebase is not in it: enter its accuracy on the build page${noise}` };
+  }
+  const timebaseHz = (figures.frequencyHz * timebasePpm) / 1e6;
+  const totalHz = Math.hypot(figures.frequencyUncertaintyHz, timebaseHz);
+  return {
+    detail: `± ${formatQuantity(totalHz, "Hz", 2)} total (1σ)`,
+    note: `statistical ${f.uncertainty}${noise}; scope timebase ±${timebasePpm} ppm = ±${formatQuantity(timebaseHz, "Hz", 2)}`,
+  };
 }
 
-export function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures: RunFigures; drift: DriftAnalysis | null }) {
+export function HeadlineMetrics({
+  run,
+  figures,
+  drift,
+  timebasePpm,
+}: {
+  run: RunData;
+  figures: RunFigures;
+  drift: DriftAnalysis | null;
+  timebasePpm: number | null;
+}) {
+  const u = uncertaintyText(figures, timebasePpm);
   const f = formatWithUncertainty(figures.frequencyHz, figures.frequencyUncertaintyHz, "Hz");
   const driftPpm = drift?.ppm ?? run.driftPpm;
   const d = formatDriftLeading(driftPpm);
@@ -46,8 +70,8 @@ export function HeadlineMetrics({ run, figures, drift }: { run: RunData; figures
       <MetricTile
         label="Measured frequency"
         value={f.value}
-        detail={f.uncertainty ? `${f.uncertainty} (1σ)` : "uncertainty not given"}
-        note={uncertaintyNote(figures)}
+        detail={u.detail}
+        note={u.note || undefined}
         className="col-span-2 lg:col-span-1"
       />
       <MetricTile

@@ -17,6 +17,8 @@ export interface RunContext {
   buildLabel: string;
   /** The tweak the run follows, in words, when there is one. */
   tweakLabel: string | null;
+  /** The build's scope timebase accuracy, ± ppm; null when not entered. */
+  timebasePpm: number | null;
 }
 
 export type RunPlot = PlotData;

@@ -168,7 +168,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
 
       {done ? (
         <>
-          <HeadlineMetrics run={run} figures={figures} drift={drift} />
+          <HeadlineMetrics run={run} figures={figures} drift={drift} timebasePpm={context.timebasePpm} />
           <Card>
             <CardHeader title="Can these figures be trusted?" />
             <CardBody>

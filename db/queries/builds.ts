@@ -26,6 +26,8 @@ export interface Build {
   /** Parts as they are on the bench now (the design's values, changed by every applied tweak). */
   asBuilt: Parts;
   status: BuildStatus;
+  /** Accuracy of the scope's timebase on this bench, ± ppm; null when nobody has entered it. */
+  timebasePpm: number | null;
   reviewComment: string | null;
   reviewedBy: string | null;
   reviewedByName: string | null;
@@ -65,6 +67,7 @@ interface BuildRow {
   built_by_name: string;
   as_built: Parts;
   status: BuildStatus;
+  timebase_ppm: number | null;
   review_comment: string | null;
   reviewed_by: string | null;
   reviewed_by_name: string | null;
@@ -89,6 +92,7 @@ function toBuild(row: BuildRow): Build {
     builtByName: row.built_by_name,
     asBuilt: row.as_built,
     status: row.status,
+    timebasePpm: row.timebase_ppm,
     reviewComment: row.review_comment,
     reviewedBy: row.reviewed_by,
     reviewedByName: row.reviewed_by_name,
@@ -180,6 +184,12 @@ export async function createBuild(
 
 export async function updateBuildAsBuilt(id: string, asBuilt: Parts, trx: Knex | Knex.Transaction = db()): Promise<void> {
   await trx("builds").where({ id }).update({ as_built: JSON.stringify(asBuilt), updated_at: trx.fn.now() });
+}
+
+/** Sets (or clears, with null) the build's scope timebase accuracy. */
+export async function updateBuildTimebase(id: string, timebasePpm: number | null, trx: Knex | Knex.Transaction = db()): Promise<Build | null> {
+  const count = await trx("builds").where({ id }).update({ timebase_ppm: timebasePpm, updated_at: trx.fn.now() });
+  return count ? getBuild(id, trx) : null;
 }
 
 export async function updateBuildReview(

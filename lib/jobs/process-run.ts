@@ -1,4 +1,5 @@
 import { db } from "@/db/index";
+import { getBuild } from "@/db/queries/builds";
 import { replaceRunFlags } from "@/db/queries/flags";
 import { claimRun, completeRun, failRun, getRun, type Run } from "@/db/queries/runs";
 import type { AnalysisResult } from "@/lib/analysis";
@@ -94,7 +95,10 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
   const { result, plot } = output;
   const thdPercent = result.thdPercent !== null && Number.isFinite(result.thdPercent) ? result.thdPercent : null;
   const inRecordDriftPpm = result.inRecordDrift?.ppm ?? null;
+  // The bench's scope timebase accuracy as the build records it now: it limits what a frequency rule can decide.
+  const timebasePpm = (await getBuild(run.buildId))?.timebasePpm ?? null;
   const evaluation = evaluateSpec(run.snapshot.spec ?? {}, {
+    timebasePpm,
     frequencyHz: result.frequencyHz,
     thdPercent,
     thd: result.thd,

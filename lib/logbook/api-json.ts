@@ -70,6 +70,7 @@ export function buildJson(b: Build | BuildSummary, prediction?: Prediction | nul
     builtByName: b.builtByName,
     asBuilt: b.asBuilt,
     status: b.status,
+    timebasePpm: b.timebasePpm,
     reviewComment: b.reviewComment,
     reviewedByName: b.reviewedByName,
     reviewedAt: b.reviewedAt,

@@ -92,3 +92,20 @@ export async function listDesignBuilds(user: CurrentUser | null, designId: strin
   if (!isId(designId) || !(await getDesign(designId))) throw new NotFoundError("The design");
   return q.listBuilds(designId, filter);
 }
+
+/**
+ * Records the accuracy of the scope's timebase on a build's bench (technician and above), so absolute frequencies
+ * carry it in their uncertainty; null clears it. Stored verdicts change at the next analysis or re-analysis.
+ * @throws NotFoundError
+ */
+export async function setBuildTimebase(actor: Actor, buildId: string, timebasePpm: number | null): Promise<q.Build> {
+  const user = requirePermission(actor.user, "build:create");
+  const build = isId(buildId) ? await q.getBuild(buildId) : null;
+  if (!build) throw new NotFoundError("The build");
+  return db().transaction(async (trx) => {
+    const updated = await q.updateBuildTimebase(buildId, timebasePpm, trx);
+    if (!updated) throw new NotFoundError("The build");
+    await audit({ ...actor, user }, "build.timebase", { type: "build", id: buildId }, { from: build.timebasePpm, to: timebasePpm }, trx);
+    return updated;
+  });
+}

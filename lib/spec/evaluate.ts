@@ -48,6 +48,22 @@ function frequencyCheck(spec: DesignSpec, m: SpecMeasurements): SpecCheck | null
   const deviation = ((m.frequencyHz - spec.targetHz) / spec.targetHz) * scale;
   const margin = spec.toleranceValue - Math.abs(deviation);
   const passed = margin >= 0;
+  // The scope's timebase error moves every absolute frequency together; a margin smaller than it decides nothing.
+  const timebase = isSet(m.timebasePpm) && m.timebasePpm > 0 ? (m.timebasePpm * scale) / 1e6 : 0;
+  if (Math.abs(margin) < timebase) {
+    return cannotJudge({
+      rule: "frequency",
+      measured: deviation,
+      limit: spec.toleranceValue,
+      margin: null,
+      unit,
+      advice: "measure against a frequency reference (a counter, or a known source captured alongside) or enter a better timebase figure",
+      message:
+        `Cannot judge the frequency: ${formatEngineering(m.frequencyHz, "Hz", 6)} is ${signed(deviation, digits)} ${unit} from the ` +
+        `${formatEngineering(spec.targetHz, "Hz", 6)} target, ${passed ? "inside" : "outside"} the ±${spec.toleranceValue} ${unit} window by ` +
+        `less than the scope's ±${m.timebasePpm} ppm timebase accuracy.`,
+    });
+  }
   return judged({
     rule: "frequency",
     passed,

@@ -25,6 +25,8 @@ export interface DesignSpec {
 /** What the evaluator needs from one analysed capture; a narrow view so the rules do not depend on the engine's shape. */
 export interface SpecMeasurements {
   frequencyHz: number;
+  /** Accuracy of the scope's timebase, ± ppm (the build's figure); absent or null when unknown. */
+  timebasePpm?: number | null;
   thdPercent: number | null;
   /**
    * How THD came out (the engine's `thd`); absent for results from before detection limits, which are

@@ -6,7 +6,8 @@ import { tweakInputSchemaFor } from "@/lib/validations/tweak";
 import { documented } from "../documented";
 import { REQUEST_EXAMPLES } from "../examples";
 import { duplicateCapture, jsonBody, jsonResponse, locationHeader, pathId, registerOperation } from "../operation";
-import { buildDetailSchema } from "../schemas/build";
+import { timebaseInputSchema } from "@/lib/validations/timebase";
+import { buildDetailSchema, buildSchema } from "../schemas/build";
 import { runAcceptedSchema, runPageSchema } from "../schemas/run";
 import { tweakPageSchema, tweakSchema } from "../schemas/tweak";
 
@@ -34,6 +35,19 @@ export function registerBuildPaths(registry: OpenAPIRegistry): void {
     action: "read",
     params: buildParams,
     responses: { 200: jsonResponse(buildDetailSchema, "The build.") },
+  });
+  registerOperation(registry, {
+    method: "patch",
+    path: "/api/v1/builds/{buildId}",
+    operationId: "setBuildTimebase",
+    tag: "Builds",
+    summary: "Set the scope timebase accuracy",
+    description:
+      "`{timebasePpm}`: the ± ppm accuracy of the scope's timebase on this bench (0–10000), or null to clear it. It is root-sum-squared into the absolute uncertainty of the build's frequencies; a frequency rule inside its limit by less than it is cannot judge. Verdicts already stored change at the next analysis or re-analysis.",
+    action: "build:create",
+    params: buildParams,
+    body: jsonBody(timebaseInputSchema, "TimebaseInput", { example: { timebasePpm: 25 } }),
+    responses: { 200: jsonResponse(buildSchema, "The build.") },
   });
   registerOperation(registry, {
     method: "get",

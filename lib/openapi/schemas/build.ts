@@ -14,6 +14,7 @@ const buildShape = {
   label: z.string(),
   kind: z.enum(BUILD_KINDS),
   kindRevision: z.string().describe("Free text beside the kind, e.g. “rev B”."),
+  timebasePpm: z.number().nullable().describe("Accuracy of the scope's timebase on this bench, ± ppm; null when not entered."),
   builtBy: userId,
   builtByName: z.string(),
   asBuilt: partsSchema.describe("Parts as they are on the bench now: the design's values changed by every applied tweak."),

@@ -76,3 +76,26 @@ describe("rules a capture cannot decide", () => {
     }
   });
 });
+
+describe("the scope's timebase accuracy", () => {
+  const base: SpecMeasurements = { frequencyHz: 1_000_030, thdPercent: 1, harmonics: [], fundamentalVpk: 1, inRecordDriftPpm: null, warnings: [] };
+  const spec = { targetHz: 1e6, toleranceValue: 50, toleranceUnit: "ppm" as const };
+
+  it("a frequency inside its ±50 ppm window by 20 ppm passes with a 10 ppm timebase and cannot be judged with a 25 ppm one", () => {
+    // +30 ppm from target: margin 50 − 30 = 20 ppm.
+    expect(evaluateSpec(spec, { ...base, timebasePpm: 10 }).verdict).toBe("pass");
+    const judged = evaluateSpec(spec, { ...base, timebasePpm: 25 });
+    expect(judged.verdict).toBe("inconclusive");
+    expect(judged.checks[0].message).toMatch(/less than the scope's ±25 ppm timebase accuracy/);
+  });
+
+  it("a frequency outside by more than the timebase fails, and without a timebase figure the old rule holds", () => {
+    expect(evaluateSpec(spec, { ...base, frequencyHz: 1_000_100, timebasePpm: 25 }).verdict).toBe("fail");
+    expect(evaluateSpec(spec, base).verdict).toBe("pass");
+  });
+
+  it("works in percent windows too: ±0.01 % (100 ppm) inside by 0.001 % (10 ppm) against a 25 ppm timebase", () => {
+    const r = evaluateSpec({ targetHz: 1e6, toleranceValue: 0.01, toleranceUnit: "percent" }, { ...base, frequencyHz: 1_000_090, timebasePpm: 25 });
+    expect(r.checks[0].outcome).toBe("cannot-judge");
+  });
+});

@@ -9,6 +9,8 @@ import { requestMeta } from "@/lib/auth/request-meta";
 import { zodFields } from "@/lib/http/problem";
 import { failedForm, formObject, invalidForm } from "@/lib/logbook/action-helpers";
 import { applyPlannedTweak, logTweak } from "@/lib/logbook/tweaks";
+import { setBuildTimebase } from "@/lib/logbook/builds";
+import { timebaseInputSchema } from "@/lib/validations/timebase";
 import { cancelUpload, completePhotoUpload, completeUpload, requestPhotoSlot, requestUploadSlot } from "@/lib/logbook/uploads";
 import { photoSlotRequestSchema } from "@/lib/validations/build";
 import { idSchema } from "@/lib/validations/common";
@@ -42,6 +44,19 @@ export async function applyPlannedTweakAction(buildId: string, _prev: FormState,
     return { ok: true, message: "Tweak applied; the as-built values are updated." };
   } catch (err) {
     return stateFromError(err);
+  }
+}
+
+/** Sets or clears the build's scope timebase accuracy (technician and above); bind the build id; field `timebasePpm`. */
+export async function setTimebaseAction(buildId: string, _prev: FormState, formData: FormData): Promise<FormState> {
+  const parsed = timebaseInputSchema.safeParse({ timebasePpm: formData.get("timebasePpm") ?? "" });
+  if (!parsed.success) return invalidForm(parsed.error, formData);
+  try {
+    const build = await setBuildTimebase(await actor(), buildId, parsed.data.timebasePpm);
+    revalidatePath(`/builds/${buildId}`);
+    return { ok: true, message: build.timebasePpm === null ? "Timebase accuracy cleared." : `Saved: ±${build.timebasePpm} ppm.` };
+  } catch (err) {
+    return failedForm(err, formData);
   }
 }
 

@@ -31,7 +31,8 @@ import { E_SERIES_NAMES, type ESeriesName } from "@/lib/oscillator/e-series";
 import { CalibratedPredictionPanel } from "@/components/layouts/calibrated-prediction-panel";
 import { buildCalibration } from "@/lib/logbook/layouts";
 import { BrokenRulesNotice, groupFlagsByRule } from "@/components/review/broken-rules-notice";
-import { applyPlannedTweakAction } from "./actions";
+import { applyPlannedTweakAction, setTimebaseAction } from "./actions";
+import { TimebaseForm } from "@/components/logbook/timebase-form";
 import { BuildActions } from "./build-actions";
 import { loadBuild } from "./load-build";
 
@@ -278,6 +279,16 @@ export default async function BuildPage({ params, searchParams }: Props) {
               Spec (revision {rev.revision}): {specPhrases(rev.spec).join(" · ")}
             </p>
           ) : null}
+          <Card>
+            <CardHeader title="Scope timebase" description="Part of every absolute frequency's uncertainty that no capture can show." />
+            <CardBody>
+              {canUpload ? (
+                <TimebaseForm action={setTimebaseAction.bind(null, buildId)} timebasePpm={build.timebasePpm} />
+              ) : (
+                <p className="text-sm text-ink-soft">{build.timebasePpm === null ? "Not entered." : `±${build.timebasePpm} ppm.`}</p>
+              )}
+            </CardBody>
+          </Card>
         </div>
       </div>
     </>

@@ -42,6 +42,7 @@ export default async function RunPage({ params }: Params) {
     buildId: build.id,
     buildLabel: build.label,
     tweakLabel: tweak ? tweakLabel(tweak, run.snapshot.topology) : null,
+    timebasePpm: build.timebasePpm,
   };
 
   return (
