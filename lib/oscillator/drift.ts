@@ -11,7 +11,7 @@ import { formatEngineering } from "./units";
 
 function checkFrequency(measuredHz: number): void {
   if (!(Number.isFinite(measuredHz) && measuredHz > 0)) {
-    throw new RangeError(`measured frequency must be a finite number above 0 Hz; got ${measuredHz}`);
+    throw new RangeError(`measured frequency must be a finite number above 0 Hz; got ${Number.isFinite(measuredHz) ? formatEngineering(measuredHz, "Hz", 4) : measuredHz}`);
   }
 }
 

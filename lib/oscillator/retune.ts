@@ -77,7 +77,7 @@ export function solvePartValue(design: OscillatorDesign, ref: string, targetHz: 
   if (!retunableParts(design).includes(ref)) {
     throw new RangeError(`part ${ref} cannot be retuned in this ${design.topology} design (choose one of ${retunableParts(design).join(", ")})`);
   }
-  if (!(Number.isFinite(targetHz) && targetHz > 0)) throw new RangeError(`target frequency must be above 0 Hz; got ${targetHz}`);
+  assertWithinLimit("frequencyHz", targetHz, "the target frequency");
   const current = design.parts[ref].valueSi;
   let lo = Math.log(current) - 6 * Math.LN10;
   let hi = Math.log(current) + 6 * Math.LN10;

@@ -7,6 +7,7 @@
 import { assertValidDesign, nominalValues, parallelCapacitanceF, type OscillatorDesign } from "./design";
 import { frequencyFromValues } from "./topologies";
 import { frequencySensitivities } from "./tolerance";
+import { assertWithinLimit } from "./limits";
 
 export interface FrequencyShift {
   nominalHz: number;
@@ -64,12 +65,11 @@ export interface TemperatureShift extends FrequencyShift {
  * @param design - validated first; parts without a tempco do not move.
  * @param temperatureChangeK - ΔT in K (same size as °C).
  * @returns the shift at nominal tempcos, plus the range of f0 over every corner of the tempco spreads.
- * @throws RangeError when the design is invalid or `temperatureChangeK` is not finite.
+ * @throws RangeError when the design is invalid or `temperatureChangeK` is outside the bench limit (never down to
+ *   absolute zero from 25 °C, at most +500 K; lib/oscillator/limits.ts).
  */
 export function temperatureShift(design: OscillatorDesign, temperatureChangeK: number): TemperatureShift {
-  if (!Number.isFinite(temperatureChangeK)) {
-    throw new RangeError(`temperature change must be a finite number of K; got ${temperatureChangeK}`);
-  }
+  assertWithinLimit("temperatureChangeK", temperatureChangeK, "the temperature change from 25 °C");
   assertValidDesign(design);
   const parts = Object.entries(design.parts);
   const nominalChanges: Record<string, number> = {};

@@ -10,6 +10,7 @@ import {
   validateDesign,
   worstCaseBand,
   statisticalBand,
+  temperatureShift,
   type OscillatorDesign,
 } from "@/lib/oscillator";
 import { design, expectRel } from "./expect-close";
@@ -65,6 +66,10 @@ describe("limitProblem", () => {
       "ΔT must be above -298.15 K and up to 500 K; got -2000 K (that is at or below absolute zero)",
     );
     expect(limitProblem("temperatureChangeK", 501, "ΔT")).toMatch(/up to 500 K; got 501 K/);
+    const c0g: OscillatorDesign = { topology: "tank", parts: { L: { valueSi: 10e-6 }, C: { valueSi: 1e-9, tempcoPpmPerK: -750 } } };
+    expect(() => temperatureShift(c0g, -2000)).toThrow(/temperature change from 25 °C must be above -298.15 K .* got -2000 K/);
+    // Linear tempco, f ∝ C^−½ (REFERENCES.md §1 sensitivity): −750 ppm/K × 40 K → C × 0.97, f × 0.97^−½ [derived].
+    expectRel(temperatureShift(c0g, 40).shiftedHz, f0(10e-6, 1e-9 * (1 - 750e-6 * 40)), 1e-12);
   });
 
   it("shows tolerances as percentages and the feedback fraction as a plain ratio", () => {
