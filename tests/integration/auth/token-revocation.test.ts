@@ -1,0 +1,46 @@
+import { afterAll, describe, expect, it } from "vitest";
+import { closeDb } from "@/db/index";
+import { createApiToken } from "@/lib/auth/api-tokens";
+import { closeLucia } from "@/lib/auth/lucia";
+import { auditRows, createPerson, getMe, getPage, linkIn, signedInCookie, submitForm, waitForMail } from "./helpers";
+
+// Taking an account back must end every credential of whoever was in, tokens included (OWASP Session
+// Management Cheat Sheet: invalidate sessions after a password change; tokens are credentials too).
+
+afterAll(async () => {
+  await closeDb();
+  await closeLucia();
+});
+
+describe("API tokens when the owner takes the account back", () => {
+  it("are revoked by sign out everywhere, and the audit event counts them", async () => {
+    const person = await createPerson("engineer");
+    const cookie = await signedInCookie(person);
+    const { token } = await createApiToken({ userId: person.id, name: "made by an intruder" });
+    const { token: second } = await createApiToken({ userId: person.id, name: "bench script" });
+    expect((await getMe({ token })).status).toBe(200);
+    const out = await submitForm("/profile", (f) => f.includes("Sign out everywhere"), {}, { cookie });
+    expect(out.status).toBe(303);
+    expect((await getMe({ token })).status).toBe(401);
+    expect((await getMe({ token: second })).status).toBe(401);
+    expect((await getMe({ cookie })).status).toBe(401);
+    const events = await auditRows({ actor_id: person.id, action: "sign-out.everywhere" });
+    expect(events.at(-1)?.detail.tokensRevoked).toBe(2);
+  });
+
+  it("are revoked by a password reset", async () => {
+    const person = await createPerson("technician");
+    const { token } = await createApiToken({ userId: person.id, name: "made by an intruder" });
+    expect((await getMe({ token })).status).toBe(200);
+    const asked = await submitForm("/forgot-password", (f) => f.includes('name="email"'), { email: person.email });
+    expect(asked.status).toBe(200);
+    const mail = await waitForMail(person.email, /Reset your Tankbook password/);
+    const path = linkIn(mail, "/reset-password/");
+    expect((await getPage(path)).status).toBe(200);
+    const done = await submitForm(path, (f) => f.includes('name="confirm"'), { password: "the owner's new passphrase", confirm: "the owner's new passphrase" });
+    expect(done.status).toBe(303);
+    expect((await getMe({ token })).status).toBe(401);
+    const events = await auditRows({ actor_id: person.id, action: "password-reset.completed" });
+    expect(events.at(-1)?.detail.tokensRevoked).toBe(1);
+  });
+});
