@@ -34,14 +34,19 @@ function Tile({ href, label, value, note, tone }: { href: string; label: string;
 
 /** Head counts, each a link to the list it counts. */
 export function DashboardCounts({ buildsByState, needingAttention, runsLast7Days, stateHref }: DashboardCountsProps) {
-  const open = buildsByState["no-runs"] + buildsByState.unchecked + buildsByState["in-spec"] + buildsByState.flagged;
+  const open = buildsByState["no-runs"] + buildsByState.unchecked + buildsByState["in-spec"] + buildsByState["cannot-judge"] + buildsByState.flagged;
   return (
     <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-6" aria-label="Builds and runs at a glance">
       <Tile href="#attention" label="Need attention" value={needingAttention} note="flagged or outside the band" tone="fail" />
       <Tile href={stateHref(["flagged"])} label="Flagged" value={buildsByState.flagged} note="latest run broke the spec" tone="fail" />
       <Tile href={stateHref(["in-spec"])} label="In spec" value={buildsByState["in-spec"]} note="latest run passed" />
       <Tile href={stateHref(["accepted", "rejected"])} label="Signed off" value={buildsByState.accepted + buildsByState.rejected} note={`${buildsByState.accepted} accepted, ${buildsByState.rejected} rejected`} />
-      <Tile href={stateHref(["no-runs", "unchecked", "in-spec", "flagged"])} label="Open builds" value={open} note={`not signed off; ${buildsByState["no-runs"]} without runs`} />
+      <Tile
+        href={stateHref(["no-runs", "unchecked", "in-spec", "cannot-judge", "flagged"])}
+        label="Open builds"
+        value={open}
+        note={`not signed off; ${buildsByState["no-runs"]} without runs${buildsByState["cannot-judge"] ? `, ${buildsByState["cannot-judge"]} cannot be judged` : ""}`}
+      />
       <Tile href="#latest-runs" label="Runs, last 7 days" value={runsLast7Days} note="uploaded captures" />
     </ul>
   );

@@ -9,10 +9,11 @@ import { likePattern } from "./pagination";
 
 /**
  * A build's state. accepted / rejected come from the sign-off; otherwise it is read from the latest analysed run:
- * flagged (verdict fail), in-spec (pass), unchecked (runs exist but none analysed with a verdict yet — queued,
- * failed, or a design without limits), no-runs.
+ * flagged (verdict fail), cannot-judge (inconclusive: no rule failed but one could not be decided on the capture),
+ * in-spec (pass), unchecked (runs exist but none analysed with a verdict yet — queued, failed, or a design without
+ * limits), no-runs.
  */
-export const BUILD_STATES = ["no-runs", "unchecked", "in-spec", "flagged", "accepted", "rejected"] as const;
+export const BUILD_STATES = ["no-runs", "unchecked", "in-spec", "cannot-judge", "flagged", "accepted", "rejected"] as const;
 export type BuildState = (typeof BUILD_STATES)[number];
 
 export const BUILD_TABLE_SORTS = ["created", "label", "state", "measuredHz", "driftPpm", "absDriftPpm", "thdPercent", "latestRunAt", "runCount"] as const;
@@ -86,10 +87,11 @@ const STATE_SQL = `case
   when not exists (select 1 from runs r0 where r0.build_id = b.id) then 'no-runs'
   when lr.verdict = 'fail' then 'flagged'
   when lr.verdict = 'pass' then 'in-spec'
+  when lr.verdict = 'inconclusive' then 'cannot-judge'
   else 'unchecked' end`;
 
 // Order of states when sorting by state: what needs a look first.
-const STATE_RANK_SQL = `case t.state when 'flagged' then 0 when 'unchecked' then 1 when 'in-spec' then 2 when 'no-runs' then 3 when 'accepted' then 4 else 5 end`;
+const STATE_RANK_SQL = `case t.state when 'flagged' then 0 when 'cannot-judge' then 1 when 'unchecked' then 2 when 'in-spec' then 3 when 'no-runs' then 4 when 'accepted' then 5 else 6 end`;
 
 const SORT_SQL: Record<BuildTableSort, string> = {
   created: "t.created_at",
