@@ -44,17 +44,23 @@ interface Peak {
  * over a window's main lobe, standing well above the median bin, with frequency and level from a
  * parabola through the log magnitudes (which also undoes most of the scallop loss).
  */
-function findPeaks(spectrum: Spectrum, excludedHz: readonly number[]): Peak[] {
-  const a = spectrum.amplitudeVpk;
+/** Bins within a main lobe (plus one bin) of each listed frequency, and that guard width in bins. */
+function excludedBins(spectrum: Spectrum, excludedHz: readonly number[]): { excluded: Uint8Array; guard: number } {
   const padding = spectrum.fftLength / spectrum.segmentLength;
   const guard = Math.ceil((spectrum.lobeHalfWidthBins + 1) * padding);
-  const excluded = new Uint8Array(a.length);
+  const excluded = new Uint8Array(spectrum.amplitudeVpk.length);
   for (const hz of excludedHz) {
     const centre = hz / spectrum.binHz;
     const lo = Math.max(0, Math.floor(centre) - guard);
-    const hi = Math.min(a.length - 1, Math.ceil(centre) + guard);
+    const hi = Math.min(excluded.length - 1, Math.ceil(centre) + guard);
     for (let k = lo; k <= hi; k++) excluded[k] = 1;
   }
+  return { excluded, guard };
+}
+
+function findPeaks(spectrum: Spectrum, excludedHz: readonly number[]): Peak[] {
+  const a = spectrum.amplitudeVpk;
+  const { excluded, guard } = excludedBins(spectrum, excludedHz);
   const threshold = PEAK_OVER_MEDIAN * median(a);
   const peaks: Peak[] = [];
   for (let k = 1; k < a.length - 1; k++) {
@@ -77,13 +83,7 @@ function findPeaks(spectrum: Spectrum, excludedHz: readonly number[]): Peak[] {
 /** The largest peak left once the listed components are excluded: noise, when nothing else is there. */
 export function largestOtherBin(spectrum: Spectrum, excludedHz: readonly number[]): Peak | null {
   const a = spectrum.amplitudeVpk;
-  const padding = spectrum.fftLength / spectrum.segmentLength;
-  const guard = Math.ceil((spectrum.lobeHalfWidthBins + 1) * padding);
-  const excluded = new Uint8Array(a.length);
-  for (const hz of excludedHz) {
-    const centre = hz / spectrum.binHz;
-    for (let k = Math.max(0, Math.floor(centre) - guard); k <= Math.min(a.length - 1, Math.ceil(centre) + guard); k++) excluded[k] = 1;
-  }
+  const { excluded } = excludedBins(spectrum, excludedHz);
   let best = -1;
   for (let k = 0; k < a.length; k++) if (!excluded[k] && (best < 0 || a[k] > a[best])) best = k;
   return best >= 0 ? { frequencyHz: best * spectrum.binHz, amplitudeVpk: a[best] } : null;
