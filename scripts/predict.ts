@@ -272,7 +272,11 @@ function humanReport(parsed: Parsed, report: DesignReport, temperature?: Tempera
   if (w.corners > 1) {
     out.push(`  worst case           ${band(w.minHz, w.maxHz)}, ${w.corners} tolerance corners`);
     out.push(`  statistical 99.7 %   ${band(s.minHz, s.maxHz)}, Monte Carlo ${s.trials} builds, seed ${s.seed}`);
-    out.push(`  RSS ±3 sigma         ${band(report.rss.minHz, report.rss.maxHz)}`);
+    out.push(
+      report.rss.meaningful
+        ? `  RSS ±3 sigma         ${band(report.rss.minHz, report.rss.maxHz)}`
+        : "  RSS ±3 sigma         not meaningful here: the linear band reaches 0 Hz (tolerances too wide for it)",
+    );
   } else {
     out.push("  no tolerances given (add --tol C=5% L=10%) so there is no band");
   }

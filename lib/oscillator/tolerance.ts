@@ -131,6 +131,11 @@ export interface RssBand extends FrequencyBand {
   relativeSigma: number;
   /** How many sigmas wide each side of the band is. */
   sigmas: number;
+  /**
+   * False when the linear band reaches 0 Hz or below: the tolerances are too wide for a first-order estimate, and
+   * only the worst-case and Monte Carlo bands mean anything.
+   */
+  meaningful: boolean;
 }
 
 /**
@@ -150,11 +155,13 @@ export function rssBand(design: OscillatorDesign, sigmas = 3): RssBand {
     sumSquares += (sensitivities[ref] * ((part.tolerance ?? 0) / 3)) ** 2;
   }
   const relativeSigma = Math.sqrt(sumSquares);
+  const minHz = nominalHz * (1 - sigmas * relativeSigma);
   return {
-    minHz: nominalHz * (1 - sigmas * relativeSigma),
+    minHz,
     maxHz: nominalHz * (1 + sigmas * relativeSigma),
     relativeSigma,
     sigmas,
+    meaningful: minHz > 0,
   };
 }
 

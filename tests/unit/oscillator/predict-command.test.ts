@@ -120,6 +120,9 @@ describe("predict command", () => {
     // L_eff = 20 µH − 2·0.99·10 µH = 200 nH [derived], f0 = 1/(2π√(200 nH · 1 nF)) = 11.2540 MHz.
     expect(stdout).toMatch(/predicted f0 {9}11\.2540 MHz/);
     expect(stdout.replace(/\s+/g, " ")).toMatch(/warning: 2 of 8 tolerance corners make the model invalid/);
+    // σ_f/f is so large here that f0·(1 − 3σ) is below 0 Hz: a negative frequency is never printed.
+    expect(stdout).toMatch(/RSS ±3 sigma {9}not meaningful here/);
+    expect(stdout).not.toMatch(/ -\d[\d.]* [kMG]?Hz/);
   });
 
   it("says when a retune target cannot be reached, with the nearest reachable frequency", () => {
