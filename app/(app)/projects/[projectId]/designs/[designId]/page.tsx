@@ -25,7 +25,8 @@ import { formatQuantity } from "@/lib/format/numbers";
 import { buildDesignReport, type DesignReport } from "@/lib/oscillator/report";
 import { BuildsTableSection } from "@/components/builds-table/builds-table-section";
 import { CalibratedPredictionPanel } from "@/components/layouts/calibrated-prediction-panel";
-import { parseConstruction } from "@/lib/layouts/construction";
+import { BuildsAgainstPredictionChart } from "@/components/layouts/builds-against-prediction-chart";
+import { constructionName, constructionOf, parseConstruction } from "@/lib/layouts/construction";
 import { designCalibration } from "@/lib/logbook/layouts";
 import { createBuildAction } from "../actions";
 
@@ -87,6 +88,12 @@ export default async function DesignPage({ params, searchParams }: Props) {
   const spec = specPhrases(rev.spec);
   const canEdit = can(user.role, "design:write");
   const canBuild = can(user.role, "build:create");
+  // The builds on this page of the list, each at its latest run's drift from prediction.
+  const chartPoints = builds.items.flatMap((b) =>
+    b.latestRun?.driftPpm != null
+      ? [{ buildId: b.id, label: b.label, kind: b.kind, constructionName: constructionName(constructionOf(b.kind, b.kindRevision)), driftPpm: b.latestRun.driftPpm }]
+      : [],
+  );
 
 
   return (
@@ -182,6 +189,11 @@ export default async function DesignPage({ params, searchParams }: Props) {
           <CreatePanel title="New build" startOpen={builds.items.length === 0 && !cursor}>
             <BuildForm action={createBuildAction.bind(null, designId)} suggestedLabel={nextLabel(builds.items.map((b) => b.label))} />
           </CreatePanel>
+        ) : null}
+        {chartPoints.length > 0 ? (
+          <div className="mb-4">
+            <BuildsAgainstPredictionChart points={chartPoints} />
+          </div>
         ) : null}
         <BuildsTableSection
           designId={designId}
