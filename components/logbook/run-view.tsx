@@ -180,7 +180,14 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
               <CardHeader title="Waveform" description="Min/max envelope of the analysed channel." />
               <CardBody>
                 {plot ? (
-                  <WaveformChart timeS={plot.waveform.timeS} minV={plot.waveform.minV} maxV={plot.waveform.maxV} channel={run.channel ?? undefined} />
+                  <WaveformChart
+                    timeS={plot.waveform.timeS}
+                    minV={plot.waveform.minV}
+                    maxV={plot.waveform.maxV}
+                    channel={run.channel ?? undefined}
+                    sampleRateHz={figures.sampleRateHz}
+                    excerptUrl={`/api/v1/runs/${runId}/excerpt`}
+                  />
                 ) : (
                   <ChartPlaceholder loading={plotQuery.isLoading} error={plotQuery.isError} />
                 )}

@@ -38,13 +38,20 @@ export function axisUnit(maxAbs: number, unit: string): AxisUnit {
  */
 export function axisTickLabels(splits: number[], incrementSi: number, axis: AxisUnit): string[] {
   const step = Math.abs(incrementSi * axis.factor);
-  // The fewest decimals that write the step exactly (a 2.5 step needs one), so no two ticks round alike.
+  // The fewest decimals that write the step exactly (a 2.5 step needs one), so no two ticks round alike. A deep
+  // zoom far from zero has a step many decades below the values (45.7786261 ms in steps of 0.1 ns), so the count
+  // is not capped at a fixed few: it goes as far as a double holds digits, and further while two ticks still match.
+  const write = (decimals: number) =>
+    splits.map((v) => {
+      const text = (v * axis.factor).toFixed(decimals);
+      return typographicMinus(/^-0(\.0+)?$/.test(text) ? text.slice(1) : text);
+    });
   let decimals = 0;
   if (step > 0 && Number.isFinite(step)) {
-    while (decimals < 6 && Math.abs(step * 10 ** decimals - Math.round(step * 10 ** decimals)) > 1e-6 * 10 ** decimals * step) decimals++;
+    const maxDecimals = Math.min(20, Math.max(0, 15 - Math.floor(Math.log10(step))));
+    while (decimals < maxDecimals && Math.abs(step * 10 ** decimals - Math.round(step * 10 ** decimals)) > 1e-6 * 10 ** decimals * step) decimals++;
   }
-  return splits.map((v) => {
-    const text = (v * axis.factor).toFixed(decimals);
-    return typographicMinus(/^-0(\.0+)?$/.test(text) ? text.slice(1) : text);
-  });
+  let labels = write(decimals);
+  while (decimals < 20 && labels.some((label, i) => i > 0 && label === labels[i - 1])) labels = write(++decimals);
+  return labels;
 }

@@ -10,6 +10,7 @@ import { registerLayoutPaths } from "./paths/layouts";
 import { registerMetaPaths } from "./paths/meta";
 import { registerProjectPaths } from "./paths/projects";
 import { registerReviewPaths } from "./paths/reviews";
+import { registerRunExcerptPaths } from "./paths/run-excerpt";
 import { registerRunPaths } from "./paths/runs";
 import { registerTweakApplyPaths } from "./paths/tweak-apply";
 import { registerUploadPaths } from "./paths/uploads";
@@ -46,6 +47,7 @@ export function buildOpenApiDocument(): { document: OpenApiDocument; stale: stri
   registerBuildPaths(registry);
   registerTweakApplyPaths(registry);
   registerRunPaths(registry);
+  registerRunExcerptPaths(registry);
   registerUploadPaths(registry);
   registerReviewPaths(registry);
   registerLayoutPaths(registry);
