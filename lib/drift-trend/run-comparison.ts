@@ -1,7 +1,13 @@
 /**
  * Two runs side by side: every figure of A and B, and what changed from A to B (before and after a tweak).
- * Pure: no I/O.
+ * Where the design's spec sets a limit (or a target window) each run is judged against it, not against the other
+ * run: "B in spec, A not" says more than "B lower". Figures the spec does not cover fall back to their direction
+ * (higher SINAD, lower THD). Pure: no I/O.
  */
+import type { DesignSpec } from "@/lib/spec/types";
+
+/** A run's spec verdict, as stored; null before the analysis or without a spec. */
+export type ComparableVerdict = "pass" | "fail" | "inconclusive" | null;
 
 /** The figures of one run that a comparison looks at; null when the run has none. */
 export interface ComparableRun {
@@ -19,6 +25,9 @@ export interface ComparableRun {
   inRecordDriftPpm: number | null;
   /** Harmonic levels by order (2, 3, …), dBc. */
   harmonics: ReadonlyArray<{ order: number; dBc: number | null }>;
+  /** The spec the run was judged against (its snapshot's); absent or null for none. */
+  spec?: DesignSpec | null;
+  verdict?: ComparableVerdict;
 }
 
 /** Which way a figure improves: lower THD, higher SINAD, drift closer to zero; null when neither is better. */
@@ -34,12 +43,21 @@ export interface MetricDifference {
   /** b − a in `unit`; null when either is missing. */
   change: number | null;
   betterWhen: BetterWhen;
-  /** Which run is better on this figure; "same" within `resolution`; null when it cannot be said. */
+  /** Which run is better on this figure; "same" within `resolution` (or both on the same side of a limit); null when it cannot be said. */
   better: "a" | "b" | "same" | null;
+  /**
+   * What `better` rests on: "spec" (a limit of the spec), "target" (the target frequency and its window),
+   * "direction" (no limit: lower THD, higher SINAD…), null when there is no judgement.
+   */
+  basis: "spec" | "target" | "direction" | null;
+  /** With basis spec or target: whether each run is within the limit (null when its figure is missing, or no window). */
+  within: { a: boolean | null; b: boolean | null } | null;
 }
 
 export interface RunComparison {
   rows: MetricDifference[];
+  /** Both runs' verdicts, and which is the better one (pass over cannot-judge over fail). */
+  verdict: { a: ComparableVerdict; b: ComparableVerdict; better: "a" | "b" | "same" | null };
   /** The frequency change relative to A, ppm. */
   frequencyChangePpm: number | null;
   /** √(u_A² + u_B²), Hz: the standard uncertainty of the frequency change. */
@@ -64,11 +82,55 @@ function judge(a: number | null, b: number | null, betterWhen: BetterWhen, unit:
   return bBetter ? "b" : "a";
 }
 
-function row(key: string, label: string, unit: string, a: number | null | undefined, b: number | null | undefined, betterWhen: BetterWhen): MetricDifference {
+/** A limit a figure is judged against: the test, and what the judgement rests on. */
+interface Limit {
+  inside: (value: number) => boolean;
+  basis: "spec" | "target";
+}
+
+function row(
+  key: string,
+  label: string,
+  unit: string,
+  a: number | null | undefined,
+  b: number | null | undefined,
+  betterWhen: BetterWhen,
+  limit: Limit | null = null,
+): MetricDifference {
   const fa = finite(a);
   const fb = finite(b);
-  return { key, label, unit, a: fa, b: fb, change: fa !== null && fb !== null ? fb - fa : null, betterWhen, better: judge(fa, fb, betterWhen, unit) };
+  const change = fa !== null && fb !== null ? fb - fa : null;
+  if (limit) {
+    const within = { a: fa === null ? null : limit.inside(fa), b: fb === null ? null : limit.inside(fb) };
+    const better = within.a === null || within.b === null ? null : within.a === within.b ? "same" : within.b ? "b" : "a";
+    return { key, label, unit, a: fa, b: fb, change, betterWhen, better, basis: limit.basis, within };
+  }
+  const better = judge(fa, fb, betterWhen, unit);
+  return { key, label, unit, a: fa, b: fb, change, betterWhen, better, basis: better === null ? null : "direction", within: null };
 }
+
+/** The spec's limits, one per figure it covers (the earlier run's spec when the two differ, B's when A has none). */
+function specLimits(spec: DesignSpec | null | undefined) {
+  const targetHz = finite(spec?.targetHz);
+  const tolerance = finite(spec?.toleranceValue);
+  const windowHz = targetHz !== null && tolerance !== null ? (spec?.toleranceUnit === "ppm" ? targetHz * tolerance * 1e-6 : (targetHz * tolerance) / 100) : null;
+  const maxThd = finite(spec?.maxThdPercent);
+  const maxHarmonic = finite(spec?.maxHarmonicDbc);
+  const minVpk = finite(spec?.minFundamentalVpk);
+  const maxDrift = finite(spec?.maxDriftPpm);
+  const limit = (inside: (v: number) => boolean, basis: Limit["basis"] = "spec"): Limit => ({ inside, basis });
+  return {
+    targetHz,
+    frequency: targetHz !== null && windowHz !== null ? limit((f) => Math.abs(f - targetHz) <= windowHz, "target") : null,
+    offTargetPpm: targetHz !== null && windowHz !== null ? limit((ppm) => Math.abs(ppm) * 1e-6 * targetHz <= windowHz, "target") : null,
+    thd: maxThd !== null ? limit((v) => v <= maxThd) : null,
+    harmonic: maxHarmonic !== null ? limit((v) => v <= maxHarmonic) : null,
+    amplitude: minVpk !== null ? limit((v) => v >= minVpk) : null,
+    inRecordDrift: maxDrift !== null ? limit((v) => Math.abs(v) <= maxDrift) : null,
+  };
+}
+
+const VERDICT_RANK: Record<NonNullable<ComparableVerdict>, number> = { fail: 0, inconclusive: 1, pass: 2 };
 
 /**
  * Compares run B with run A, figure by figure.
@@ -79,24 +141,33 @@ function row(key: string, label: string, unit: string, a: number | null | undefi
  *   its combined standard uncertainty.
  */
 export function compareRuns(a: ComparableRun, b: ComparableRun): RunComparison {
+  const limits = specLimits(a.spec ?? b.spec);
+  const targetA = finite(a.spec?.targetHz) ?? limits.targetHz;
+  const targetB = finite(b.spec?.targetHz) ?? limits.targetHz;
+  const offTarget = (f: number | null, t: number | null) => (f !== null && t !== null && t !== 0 ? ((f - t) / t) * 1e6 : null);
+  const hasTarget = targetA !== null || targetB !== null;
   const rows: MetricDifference[] = [
-    row("measuredHz", "Measured frequency", "Hz", a.measuredHz, b.measuredHz, null),
+    row("targetHz", "Target frequency", "Hz", targetA, targetB, null),
+    row("measuredHz", "Measured frequency", "Hz", a.measuredHz, b.measuredHz, null, limits.frequency),
+    // Without a tolerance window the target still orders the runs: nearer it is better.
+    row("offTargetPpm", "Off target", "ppm", offTarget(finite(a.measuredHz), targetA), offTarget(finite(b.measuredHz), targetB), hasTarget ? "closer-to-zero" : null, limits.offTargetPpm),
     row("predictedHz", "Predicted frequency", "Hz", a.predictedHz, b.predictedHz, null),
-    row("driftPpm", "Drift vs predicted", "ppm", a.driftPpm, b.driftPpm, "closer-to-zero"),
-    row("impliedExtraCapacitanceF", "Implied extra capacitance", "F", a.impliedExtraCapacitanceF, b.impliedExtraCapacitanceF, "closer-to-zero"),
-    row("fundamentalVpk", "Fundamental amplitude (peak)", "V", a.fundamentalVpk, b.fundamentalVpk, null),
-    row("thdPercent", "THD", "%", a.thdPercent, b.thdPercent, "lower"),
-    row("worstHarmonicDbc", "Worst harmonic", "dBc", a.worstHarmonicDbc, b.worstHarmonicDbc, "lower"),
+    // With a target, nearness to the prediction says how good the model is, not the circuit: the target judges.
+    row("driftPpm", "Drift vs predicted", "ppm", a.driftPpm, b.driftPpm, hasTarget ? null : "closer-to-zero"),
+    row("impliedExtraCapacitanceF", "Implied extra capacitance", "F", a.impliedExtraCapacitanceF, b.impliedExtraCapacitanceF, hasTarget ? null : "closer-to-zero"),
+    row("fundamentalVpk", "Fundamental amplitude (peak)", "V", a.fundamentalVpk, b.fundamentalVpk, null, limits.amplitude),
+    row("thdPercent", "THD", "%", a.thdPercent, b.thdPercent, "lower", limits.thd),
+    row("worstHarmonicDbc", "Worst harmonic", "dBc", a.worstHarmonicDbc, b.worstHarmonicDbc, "lower", limits.harmonic),
     row("sinadDb", "SINAD", "dB", a.sinadDb, b.sinadDb, "higher"),
     row("snrDb", "SNR", "dB", a.snrDb, b.snrDb, "higher"),
     row("sfdrDb", "SFDR", "dB", a.sfdrDb, b.sfdrDb, "higher"),
-    row("inRecordDriftPpm", "In-record drift", "ppm", a.inRecordDriftPpm, b.inRecordDriftPpm, "closer-to-zero"),
+    row("inRecordDriftPpm", "In-record drift", "ppm", a.inRecordDriftPpm, b.inRecordDriftPpm, "closer-to-zero", limits.inRecordDrift),
   ];
   const orders = [...new Set([...a.harmonics, ...b.harmonics].map((h) => h.order))].filter((o) => o >= 2).sort((x, y) => x - y);
   for (const order of orders) {
     const la = a.harmonics.find((h) => h.order === order)?.dBc;
     const lb = b.harmonics.find((h) => h.order === order)?.dBc;
-    rows.push(row(`harmonic-${order}`, `Harmonic ${order}`, "dBc", la, lb, "lower"));
+    rows.push(row(`harmonic-${order}`, `Harmonic ${order}`, "dBc", la, lb, "lower", limits.harmonic));
   }
 
   const fa = finite(a.measuredHz);
@@ -107,5 +178,8 @@ export function compareRuns(a: ComparableRun, b: ComparableRun): RunComparison {
   const frequencyChangeUncertaintyHz = ua !== null && ub !== null ? Math.hypot(ua, ub) : null;
   const frequencyChangeSignificant =
     fa !== null && fb !== null && frequencyChangeUncertaintyHz !== null ? Math.abs(fb - fa) > 2 * frequencyChangeUncertaintyHz : null;
-  return { rows, frequencyChangePpm, frequencyChangeUncertaintyHz, frequencyChangeSignificant };
+  const va = a.verdict ?? null;
+  const vb = b.verdict ?? null;
+  const verdictBetter = va === null || vb === null ? null : VERDICT_RANK[va] === VERDICT_RANK[vb] ? "same" : VERDICT_RANK[vb] > VERDICT_RANK[va] ? "b" : "a";
+  return { rows, verdict: { a: va, b: vb, better: verdictBetter }, frequencyChangePpm, frequencyChangeUncertaintyHz, frequencyChangeSignificant };
 }

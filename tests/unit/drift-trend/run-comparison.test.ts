@@ -75,4 +75,46 @@ describe("compareRuns", () => {
     const c = compareRuns(figures(), figures({ measuredHz: 370_000 }));
     expect(c.rows.find((r) => r.key === "measuredHz")!.better).toBeNull();
   });
+
+  const spec = { targetHz: 400_000, toleranceValue: 2, toleranceUnit: "percent" as const, maxThdPercent: 5, maxHarmonicDbc: -30 };
+
+  it("judges_frequency_against_the_target_window_not_against_the_other_run", () => {
+    // Window 400 kHz ± 2 % = 392..408 kHz. A at 391 kHz is outside, B at 407 kHz inside, though B moved further.
+    const c = compareRuns(figures({ spec, measuredHz: 391_000 }), figures({ spec, measuredHz: 407_000 }));
+    const f = c.rows.find((r) => r.key === "measuredHz")!;
+    expect(f).toMatchObject({ basis: "target", within: { a: false, b: true }, better: "b" });
+    const off = c.rows.find((r) => r.key === "offTargetPpm")!;
+    expect(off.a).toBeCloseTo(-22_500, 6);
+    expect(off.b).toBeCloseTo(17_500, 6);
+    expect(off.better).toBe("b");
+    expect(c.rows.find((r) => r.key === "targetHz")).toMatchObject({ a: 400_000, b: 400_000, better: null });
+    // The prediction no longer decides anything once there is a target.
+    expect(c.rows.find((r) => r.key === "driftPpm")!.better).toBeNull();
+  });
+
+  it("two_runs_on_the_same_side_of_a_spec_limit_are_the_same_however_far_apart", () => {
+    const inside = compareRuns(figures({ spec, thdPercent: 4.9 }), figures({ spec, thdPercent: 0.2 }));
+    expect(inside.rows.find((r) => r.key === "thdPercent")).toMatchObject({ basis: "spec", within: { a: true, b: true }, better: "same" });
+    const outside = compareRuns(figures({ spec, harmonics: [{ order: 2, dBc: -20 }] }), figures({ spec, harmonics: [{ order: 2, dBc: -29.9 }] }));
+    expect(outside.rows.find((r) => r.key === "harmonic-2")).toMatchObject({ within: { a: false, b: false }, better: "same" });
+    const fixed = compareRuns(figures({ spec, thdPercent: 5.1 }), figures({ spec, thdPercent: 4.9 }));
+    expect(fixed.rows.find((r) => r.key === "thdPercent")!.better).toBe("b");
+  });
+
+  it("figures_the_spec_does_not_cover_keep_their_direction", () => {
+    const c = compareRuns(figures({ spec, sinadDb: 30 }), figures({ spec, sinadDb: 40 }));
+    expect(c.rows.find((r) => r.key === "sinadDb")).toMatchObject({ basis: "direction", better: "b", within: null });
+  });
+
+  it("the_verdicts_rank_pass_over_cannot_judge_over_fail", () => {
+    expect(compareRuns(figures({ verdict: "fail" }), figures({ verdict: "inconclusive" })).verdict).toEqual({ a: "fail", b: "inconclusive", better: "b" });
+    expect(compareRuns(figures({ verdict: "pass" }), figures({ verdict: "pass" })).verdict.better).toBe("same");
+    expect(compareRuns(figures({ verdict: "pass" }), figures()).verdict.better).toBeNull();
+  });
+
+  it("a_ppm_tolerance_sets_the_window_in_ppm", () => {
+    const ppmSpec = { targetHz: 10e6, toleranceValue: 50, toleranceUnit: "ppm" as const };
+    const c = compareRuns(figures({ spec: ppmSpec, measuredHz: 10e6 + 600 }), figures({ spec: ppmSpec, measuredHz: 10e6 + 400 }));
+    expect(c.rows.find((r) => r.key === "measuredHz")!.within).toEqual({ a: false, b: true });
+  });
 });

@@ -47,6 +47,9 @@ function comparable(run: Run): ComparableRun {
     sfdrDb: f.sfdrDb,
     inRecordDriftPpm: run.inRecordDriftPpm ?? f.inRecordDriftPpm,
     harmonics: f.harmonics.map((h) => ({ order: h.order, dBc: h.dBc })),
+    // Judged against the spec the run was judged against at the bench, not today's.
+    spec: run.snapshot.spec ?? null,
+    verdict: run.verdict,
   };
 }
 
@@ -204,7 +207,10 @@ export default async function CompareRunsPage({ searchParams }: Props) {
           </Card>
 
           <Card>
-            <CardHeader title="Every figure" description="B − A; the better side is marked where a figure has one (lower THD, higher SINAD, drift nearer zero)." />
+            <CardHeader
+              title="Every figure"
+              description="B − A, and which run is better: against the design's target and spec where they set a limit (in spec beats outside it, whatever the other run did), else by the figure's direction (lower THD, higher SINAD)."
+            />
             <CardBody>
               <RunComparisonTable
                 comparison={comparison!}
