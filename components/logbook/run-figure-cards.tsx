@@ -16,17 +16,21 @@ import type { DriftAnalysis } from "@/lib/oscillator/drift";
 import type { RunFigures } from "./run-results";
 import type { RunData } from "./run-types";
 
-/** THD as the record supports it: a figure over the detected orders, "below its floor", or not measured with the reason. */
+/**
+ * THD as the record supports it: a figure over the detected orders, "below its floor", or not measured with the
+ * reason. The detail line does not wrap, so it stays short; the explanation goes in the note.
+ */
 function thdTile(figures: RunFigures): { value: string; detail: string; note?: string } {
-  const sinad = figures.sinadDb !== null ? `SINAD ${formatDecibels(figures.sinadDb)}` : undefined;
+  const sinad = figures.sinadDb !== null ? `SINAD ${formatDecibels(figures.sinadDb)}` : null;
+  const withSinad = (text: string | null) => [text, sinad].filter(Boolean).join(" · ") || undefined;
   const t = figures.thd;
-  if (t?.status === "not-measurable") return { value: "Not measured", detail: t.note ?? "an order cannot be separated", note: sinad };
-  if (t?.status === "below-floor") return { value: `< ${formatPercent(t.floorPercent)}`, detail: "no harmonic above the noise", note: sinad };
-  const thd = formatThd(figures.thdPercent === null ? null : figures.thdPercent / 100);
-  if (figures.thdPercent === null) return { value: "Not measured", detail: "no THD figure for this capture", note: sinad };
+  if (t?.status === "not-measurable") return { value: "Not measured", detail: "an order cannot be separated", note: withSinad(t.note) };
+  if (t?.status === "below-floor") return { value: `< ${formatPercent(t.floorPercent)}`, detail: "below the noise floor", note: withSinad("no harmonic stands above the noise") };
+  if (figures.thdPercent === null) return { value: "Not measured", detail: "no THD figure", note: withSinad(null) };
+  const thd = formatThd(figures.thdPercent / 100);
   const floor = t && t.floorPercent > 0 ? `; the rest under a ${formatPercent(t.floorPercent)} floor` : "";
-  const over = t && t.detectedOrders.length > 0 ? `over harmonic${t.detectedOrders.length > 1 ? "s" : ""} ${t.detectedOrders.join(", ")}${floor}` : "";
-  return { value: thd.percent, detail: [thd.db, over].filter(Boolean).join(" · "), note: sinad };
+  const over = t && t.detectedOrders.length > 0 ? `over harmonic${t.detectedOrders.length > 1 ? "s" : ""} ${t.detectedOrders.join(", ")}${floor}` : null;
+  return { value: thd.percent, detail: thd.db, note: withSinad(over) };
 }
 
 /**
