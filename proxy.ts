@@ -1,8 +1,10 @@
 import { NextResponse, type NextRequest } from "next/server";
-import { percentEscapesValid, securityHeaders } from "@/lib/http/security-headers";
+import { percentEscapesValid } from "@/lib/http/percent-escapes";
 
-// Runs before every page, route handler and static file: the one place the browser security headers are set,
-// and where a URL the router could not decode is answered as a 400 instead of the framework's plain-text 500.
+// Answers a URL the router could not decode with a 400 instead of the framework's plain-text 500. It runs only
+// for requests without a body (see `config`): with a proxy in the way Next buffers a request body until it has
+// all of it (and cuts it at 10 MB), which would break streamed uploads and the early 413 of oversized JSON.
+// The security headers come from next.config.mjs, which touches no body.
 
 function badEscapeAnswer(pathname: string): Response {
   const detail = "The address has a malformed percent-escape (RFC 3986 §2.1): each % must be followed by two hex digits that spell UTF-8.";
@@ -20,8 +22,17 @@ function badEscapeAnswer(pathname: string): Response {
 
 export function proxy(request: NextRequest): Response {
   const pathname = new URL(request.url).pathname;
-  const response = percentEscapesValid(pathname) ? NextResponse.next() : badEscapeAnswer(pathname);
-  const headers = securityHeaders({ production: process.env.NODE_ENV === "production", s3Endpoint: process.env.S3_ENDPOINT ?? "http://127.0.0.1:4569" });
-  for (const [name, value] of Object.entries(headers)) response.headers.set(name, value);
-  return response;
+  return percentEscapesValid(pathname) ? NextResponse.next() : badEscapeAnswer(pathname);
 }
+
+export const config = {
+  matcher: [
+    {
+      source: "/:path*",
+      missing: [
+        { type: "header", key: "content-length" },
+        { type: "header", key: "transfer-encoding" },
+      ],
+    },
+  ],
+};

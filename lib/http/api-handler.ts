@@ -30,7 +30,7 @@ const DRAIN_LIMIT_BYTES = 1024 * 1024;
  * it: answering earlier lets the framework drop the unread body, which resets the connection under a client
  * that is still sending, and it never sees the answer.
  */
-async function discardUnreadBody(request: Request): Promise<void> {
+export async function discardUnreadBody(request: Request): Promise<void> {
   if (!request.body || request.bodyUsed) return;
   const length = Number(request.headers.get("content-length") ?? Number.NaN);
   if (!(length <= DRAIN_LIMIT_BYTES)) return;

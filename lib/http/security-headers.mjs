@@ -1,19 +1,23 @@
-// Browser security headers for every page and route, set in one place (proxy.ts).
+// Browser security headers for every page, route and file, set in one place: next.config.mjs headers().
+// Plain JavaScript because next.config.mjs imports it. Not set from proxy.ts: a proxy makes Next buffer every
+// request body before the route handler sees it, which would end streamed capture uploads.
+// Next reads headers() when the app is built, so S3_ENDPOINT at build time is the one the CSP names.
 
-export interface SecurityHeaderOptions {
-  /** NODE_ENV: HSTS only in production, so a developer's http://127.0.0.1 is never pinned to https. */
-  production: boolean;
-  /** S3_ENDPOINT: the browser PUTs captures to presigned URLs there, so it must be a connect-src. */
-  s3Endpoint: string;
-}
+/**
+ * @typedef {object} SecurityHeaderOptions
+ * @property {boolean} production NODE_ENV: HSTS only in production, so a developer's http://127.0.0.1 is never pinned to https.
+ * @property {string} s3Endpoint S3_ENDPOINT: the browser PUTs captures to presigned URLs there, so it must be a connect-src.
+ */
 
 /** The origin the browser uploads to: the configured endpoint's, or any AWS S3 host when none is set. */
-function storageOrigins(s3Endpoint: string): string[] {
+/** @param {string} s3Endpoint @returns {string[]} */
+function storageOrigins(s3Endpoint) {
   if (!s3Endpoint) return ["https://*.amazonaws.com"];
   try {
     const url = new URL(s3Endpoint);
     // Virtual-hosted buckets are a subdomain of the endpoint.
-    return [url.origin, `${url.protocol}//*.${url.host}`];
+    const isIp = /^[\d.]+$/.test(url.hostname) || url.hostname.startsWith("[");
+    return isIp ? [url.origin] : [url.origin, `${url.protocol}//*.${url.host}`];
   } catch {
     return [];
   }
@@ -26,10 +30,12 @@ function storageOrigins(s3Endpoint: string): string[] {
  * policy still refuses: scripts from any other origin, plugins (object-src), <base> rewrites, forms posting
  * elsewhere and being framed (frame-ancestors, the clickjacking defence of OWASP's Clickjacking Defense Cheat Sheet).
  */
-export function contentSecurityPolicy(options: SecurityHeaderOptions): string {
-  const directives: Record<string, string[]> = {
+export function contentSecurityPolicy(/** @type {SecurityHeaderOptions} */ options) {
+  /** @type {Record<string, string[]>} */
+  const directives = {
     "default-src": ["'self'"],
-    "script-src": ["'self'", "'unsafe-inline'"],
+    // `next dev` evaluates modules with eval() for its source maps and fast refresh; production never does.
+    "script-src": ["'self'", "'unsafe-inline'", ...(options.production ? [] : ["'unsafe-eval'"])],
     "style-src": ["'self'", "'unsafe-inline'"],
     "img-src": ["'self'", "data:", "blob:"],
     "font-src": ["'self'"],
@@ -45,8 +51,9 @@ export function contentSecurityPolicy(options: SecurityHeaderOptions): string {
 }
 
 /** Every header the proxy sets on every answer, by name (lower case). */
-export function securityHeaders(options: SecurityHeaderOptions): Record<string, string> {
-  const headers: Record<string, string> = {
+export function securityHeaders(/** @type {SecurityHeaderOptions} */ options) {
+  /** @type {Record<string, string>} */
+  const headers = {
     "content-security-policy": contentSecurityPolicy(options),
     // For browsers without CSP frame-ancestors (RFC 7034).
     "x-frame-options": "DENY",
@@ -61,14 +68,4 @@ export function securityHeaders(options: SecurityHeaderOptions): Record<string, 
   // RFC 6797: a year, subdomains included; only where Tankbook is served over https in production.
   if (options.production) headers["strict-transport-security"] = "max-age=31536000; includeSubDomains";
   return headers;
-}
-
-/** Whether every percent-escape in a URL path decodes to UTF-8 (RFC 3986 §2.1, RFC 3629). */
-export function percentEscapesValid(path: string): boolean {
-  try {
-    decodeURIComponent(path);
-    return true;
-  } catch {
-    return false;
-  }
 }

@@ -1,3 +1,4 @@
+import "./zod-config";
 import { z } from "zod";
 
 /** An e-mail address as typed: trimmed, lower-cased (accounts compare case-insensitively anyway). */

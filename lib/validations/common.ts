@@ -1,3 +1,4 @@
+import "./zod-config";
 import { z } from "zod";
 import { parseTempco, parseTolerance, parseValue, type QuantityUnit } from "@/lib/oscillator";
 import { withinLimit } from "./limits";

@@ -5,6 +5,7 @@ import { clientIp } from "@/lib/auth/client-ip";
 import { SESSION_COOKIE_NAME } from "@/lib/auth/lucia";
 import { signIn, signOut } from "@/lib/auth/sign-in";
 import { UnsupportedMediaTypeError, UnauthorizedError } from "@/lib/errors";
+import { discardUnreadBody } from "@/lib/http/api-handler";
 import { ANONYMOUS_JSON_LIMITS, readLimitedJson } from "@/lib/http/json-body";
 import { problemFromError } from "@/lib/http/problem";
 import { signInSchema } from "@/lib/validations/auth";
@@ -31,6 +32,7 @@ export async function POST(request: Request): Promise<Response> {
     await setSessionCookie(session.id);
     return Response.json({ user, expiresAt: session.expiresAt.toISOString() }, { status: 201, headers: { "cache-control": "no-store" } });
   } catch (err) {
+    await discardUnreadBody(request);
     return problemFromError(err);
   }
 }
