@@ -24,8 +24,8 @@ function thdTile(figures: RunFigures): { value: string; detail: string; note?: s
   const sinad = figures.sinadDb !== null ? `SINAD ${formatDecibels(figures.sinadDb)}` : null;
   const withSinad = (text: string | null) => [text, sinad].filter(Boolean).join(" · ") || undefined;
   const t = figures.thd;
-  if (t?.status === "not-measurable") return { value: "Not measured", detail: "an order cannot be separated", note: withSinad(t.note) };
-  if (t?.status === "below-floor") return { value: `< ${formatPercent(t.floorPercent)}`, detail: "below the noise floor", note: withSinad("no harmonic stands above the noise") };
+  if (t?.status === "not-measurable") return { value: "Not measured", detail: "not separable", note: withSinad(t.note) };
+  if (t?.status === "below-floor") return { value: `< ${formatPercent(t.floorPercent)}`, detail: "under the noise", note: withSinad("no harmonic stands above the noise floor") };
   if (figures.thdPercent === null) return { value: "Not measured", detail: "no THD figure", note: withSinad(null) };
   const thd = formatThd(figures.thdPercent / 100);
   const floor = t && t.floorPercent > 0 ? `; the rest under a ${formatPercent(t.floorPercent)} floor` : "";
