@@ -4,11 +4,12 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useEffect, useId, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
-import { Field, FormMessage, Input, Select, Textarea, describedBy } from "@/components/ui/field";
+import { Field, FormMessage, Input, Select, describedBy } from "@/components/ui/field";
 import { formatBytes } from "@/lib/format/bytes";
 import { formatDateTime } from "@/lib/format/dates";
 import { putWithProgress, UploadCancelledError, type UploadHandle, type UploadProgress } from "./put-with-progress";
 import { UploadFilePicker } from "./upload-file-picker";
+import { UploadMeasurementFields, type MeasurementValues } from "./upload-measurement-fields";
 import { PrecheckSummary, useCapturePrecheck } from "./upload-precheck";
 import { UploadProgressPanel } from "./upload-progress";
 import type { DuplicateRun, RegisterResult, RunRegistration, TweakChoice, UploadRequest, UploadSlotResult } from "./upload-types";
@@ -58,17 +59,13 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
   const [errors, setErrors] = useState<Record<string, string[]>>({});
 
   const [channel, setChannel] = useState("");
-  const [probe, setProbe] = useState("1");
-  const [supply, setSupply] = useState("");
-  const [temperature, setTemperature] = useState("");
-  const [note, setNote] = useState("");
-  const [tweakId, setTweakId] = useState(defaultTweakId ?? "");
+  const [measured, setMeasured] = useState<MeasurementValues>({ probe: "1", supply: "", temperature: "", tweakId: defaultTweakId ?? "", note: "" });
 
   const busy = phase.kind === "uploading" || phase.kind === "registering";
 
   // A tweak logged while this form is open becomes the one the next capture follows.
   useEffect(() => {
-    setTweakId(defaultTweakId ?? "");
+    setMeasured((m) => ({ ...m, tweakId: defaultTweakId ?? "" }));
   }, [defaultTweakId]);
 
   async function choose(next: File | null) {
@@ -83,6 +80,7 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
 
   function readRegistration(): RunRegistration | null {
     const problems: Record<string, string[]> = {};
+    const { probe, supply, temperature, note, tweakId } = measured;
     const probeValue = numberOrNull(probe);
     if (probeValue === null || probeValue === "bad" || probeValue < 1) {
       problems.probe = ["Give the probe attenuation as a number of 1 or more (1 if the scope already scaled for the probe)."];
@@ -240,87 +238,7 @@ export function UploadForm({ buildId, tweaks, defaultTweakId, requestUpload, reg
             />
           </Field>
         )}
-        <Field
-          id={id("probe")}
-          label="Probe attenuation (×)"
-          hint="1 if the scope already scaled the samples for the probe."
-          errors={errors.probe}
-        >
-          <Input
-            id={id("probe")}
-            inputMode="decimal"
-            list={id("probe-list")}
-            value={probe}
-            onChange={(e) => setProbe(e.target.value)}
-            disabled={busy}
-            aria-describedby={describedBy(id("probe"))}
-            aria-invalid={errors.probe ? true : undefined}
-            className="num font-mono"
-          />
-          <datalist id={id("probe-list")}>
-            <option value="1" />
-            <option value="10" />
-            <option value="100" />
-          </datalist>
-        </Field>
-        <Field id={id("supply")} label="Supply (V)" hint="Optional." errors={errors.supplyV}>
-          <Input
-            id={id("supply")}
-            inputMode="decimal"
-            value={supply}
-            onChange={(e) => setSupply(e.target.value)}
-            disabled={busy}
-            placeholder="e.g. 9"
-            aria-describedby={describedBy(id("supply"))}
-            aria-invalid={errors.supplyV ? true : undefined}
-            className="num font-mono"
-          />
-        </Field>
-        <Field id={id("temperature")} label="Temperature (°C)" hint="Optional: at the board." errors={errors.temperatureC}>
-          <Input
-            id={id("temperature")}
-            inputMode="decimal"
-            value={temperature}
-            onChange={(e) => setTemperature(e.target.value)}
-            disabled={busy}
-            placeholder="e.g. 23.5"
-            aria-describedby={describedBy(id("temperature"))}
-            aria-invalid={errors.temperatureC ? true : undefined}
-            className="num font-mono"
-          />
-        </Field>
-        <Field
-          id={id("tweak")}
-          label="This run follows tweak"
-          hint="Ties the run to the change it measures."
-          errors={errors.tweakId}
-          className="sm:col-span-2"
-        >
-          <Select
-            id={id("tweak")}
-            value={tweakId}
-            onChange={(e) => setTweakId(e.target.value)}
-            disabled={busy}
-            aria-describedby={describedBy(id("tweak"))}
-          >
-            <option value="">No tweak (as built)</option>
-            {tweaks.map((t) => (
-              <option key={t.id} value={t.id}>
-                {t.label}
-              </option>
-            ))}
-          </Select>
-        </Field>
-        <Field id={id("note")} label="Note" hint="Optional: what you did or saw." errors={errors.note} className="sm:col-span-2">
-          <Textarea
-            id={id("note")}
-            rows={2}
-            value={note}
-            onChange={(e) => setNote(e.target.value)}
-            disabled={busy}
-            aria-describedby={describedBy(id("note"))}
-          />
-        </Field>
+        <UploadMeasurementFields id={id} values={measured} onChange={(name, value) => setMeasured((m) => ({ ...m, [name]: value }))} tweaks={tweaks} errors={errors} disabled={busy} />
       </div>
 
       {phase.kind === "uploading" && progress ? <UploadProgressPanel progress={progress} /> : null}

@@ -1,0 +1,96 @@
+import type { Browser } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { closeDb, db } from "@/db/index";
+import { closeLucia } from "@/lib/auth/lucia";
+import { api, sendJson } from "../../integration/api/helpers";
+import { launchBrowser } from "../../helpers/browser";
+import { appUrl } from "../../helpers/stack";
+import { freshPage, journeyPerson, scene, signIn, type JourneyPerson, type Scene } from "./helpers";
+
+// Two things a first-time user found broken: a planned tweak had no control that applies it, and the People
+// page's role select kept showing the old role after "Role saved." (a second Save then sent the old role back).
+
+let browser: Browser;
+let admin: JourneyPerson;
+let engineer: JourneyPerson;
+let technician: JourneyPerson;
+let world: Scene;
+
+beforeAll(async () => {
+  admin = await journeyPerson("admin", "fix-admin");
+  engineer = await journeyPerson("engineer", "fix-eng");
+  technician = await journeyPerson("technician", "fix-tech");
+  world = await scene(engineer, technician, "Bench fixes");
+  browser = await launchBrowser();
+}, 120_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await closeDb();
+  await closeLucia();
+});
+
+describe("the bench workflow fixes", () => {
+  it("a technician applies a planned tweak from the build page once the part is fitted", async () => {
+    const planned = await sendJson("post", `/api/v1/builds/${world.buildId}/tweaks`, technician, { partRef: "C2", toValue: "5n6", planned: true, note: "retune" });
+    expect(planned.status, planned.text).toBe(201);
+
+    const { page, context, errors } = await freshPage(browser);
+    await signIn(page, technician);
+    await page.goto(`${appUrl()}/builds/${world.buildId}`);
+    const apply = page.getByRole("button", { name: /^Apply the planned tweak C2/ });
+    await apply.waitFor({ timeout: 30_000 });
+    await apply.click();
+    // The page re-renders with the tweak applied: its row reads "Tweak:" and has no apply control left.
+    await page.getByRole("button", { name: /^Apply the planned tweak C2/ }).waitFor({ state: "detached", timeout: 30_000 });
+    expect(await page.getByText("Planned tweak:").count()).toBe(0);
+    await page.getByRole("row").filter({ hasText: "Tweak: " }).filter({ hasText: "C2" }).first().waitFor();
+
+    const build = await api("get", `/api/v1/builds/${world.buildId}`, technician);
+    expect(build.body.asBuilt.C2.valueSi).toBeCloseTo(5.6e-9, 20);
+    const tweaks = await api("get", `/api/v1/builds/${world.buildId}/tweaks`, technician);
+    expect(tweaks.body.items.find((t: { id: string }) => t.id === planned.body.id)).toMatchObject({ planned: false });
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 120_000);
+
+  it("a viewer sees no apply control", async () => {
+    const viewer = await journeyPerson("viewer", "fix-viewer");
+    const planned = await sendJson("post", `/api/v1/builds/${world.buildId}/tweaks`, technician, { partRef: "C1", toValue: "2n7", planned: true });
+    expect(planned.status, planned.text).toBe(201);
+    const { page, context } = await freshPage(browser);
+    await signIn(page, viewer);
+    await page.goto(`${appUrl()}/builds/${world.buildId}`);
+    await page.getByText("Planned tweak:").first().waitFor({ timeout: 30_000 });
+    expect(await page.getByRole("button", { name: /^Apply the planned tweak/ }).count()).toBe(0);
+    await context.close();
+  }, 120_000);
+
+  it("the role select shows the saved role after 'Role saved.' and a second Save keeps it", async () => {
+    const person = await journeyPerson("viewer", "fix-role");
+    const { page, context, errors } = await freshPage(browser);
+    await signIn(page, admin);
+    await page.goto(`${appUrl()}/people`);
+    const select = page.getByLabel(`Role of ${person.name}`, { exact: true });
+    const save = page.getByRole("button", { name: `Save the role of ${person.name}` });
+    await select.selectOption("engineer");
+    await save.click();
+    const row = page.getByRole("row").filter({ has: select });
+    await row.getByText("Role saved.").waitFor({ timeout: 30_000 });
+    expect(await page.getByLabel(`Role of ${person.name}`, { exact: true }).inputValue()).toBe("engineer");
+    expect((await db()("auth_user").where({ id: person.id }).first()).role).toBe("engineer");
+
+    // The second Save posts the action again; its answer, not the message already on screen, ends the wait.
+    await Promise.all([
+      page.waitForResponse((r) => r.request().method() === "POST" && new URL(r.url()).pathname === "/people", { timeout: 30_000 }),
+      page.getByRole("button", { name: `Save the role of ${person.name}` }).click(),
+    ]);
+    await row.getByText("Role saved.").waitFor({ timeout: 30_000 });
+    await expect.poll(async () => (await db()("auth_user").where({ id: person.id }).first()).role, { timeout: 10_000 }).toBe("engineer");
+    expect(await page.getByLabel(`Role of ${person.name}`, { exact: true }).inputValue()).toBe("engineer");
+    await page.reload();
+    expect(await page.getByLabel(`Role of ${person.name}`, { exact: true }).inputValue()).toBe("engineer");
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 120_000);
+});
