@@ -13,6 +13,7 @@ import { closeLucia } from "../lib/auth/lucia";
 import { hashPassword } from "../lib/auth/password";
 import type { Role } from "../lib/auth/permissions";
 import { seedDemoLogbook } from "./seed/logbook";
+import { seedLayoutSurvey } from "./seed/layouts";
 
 /** What earlier steps made, for later ones (e.g. whose name a demo build goes under). */
 export interface SeedContext {
@@ -68,7 +69,11 @@ async function seedDemoAccounts(ctx: SeedContext): Promise<void> {
   writeFileSync(accountsFile, lines.join("\n"));
 }
 
-const steps: SeedStep[] = [{ name: "demo accounts", run: seedDemoAccounts }, { name: "demo logbook", run: seedDemoLogbook }];
+const steps: SeedStep[] = [
+  { name: "demo accounts", run: seedDemoAccounts },
+  { name: "demo logbook", run: seedDemoLogbook },
+  { name: "layout survey", run: seedLayoutSurvey },
+];
 
 async function main(): Promise<number> {
   if (process.env.NODE_ENV === "production" && !args["allow-production"]) {
