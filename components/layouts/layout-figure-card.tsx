@@ -100,7 +100,7 @@ export function LayoutFigureCard({ figure, buildLimit, moreHref }: LayoutFigureC
               <tbody>
                 {shown.map((b) => (
                   <Tr key={b.buildId}>
-                    <Td>
+                    <Td className="whitespace-nowrap">
                       <Link className={`font-medium text-ink ${link}`} href={`/builds/${b.buildId}`}>
                         {b.label}
                       </Link>
@@ -110,22 +110,22 @@ export function LayoutFigureCard({ figure, buildLimit, moreHref }: LayoutFigureC
                         {b.designName}
                       </Link>
                     </Td>
-                    <Td numeric>
+                    <Td numeric className="whitespace-nowrap">
                       <Link className={link} href={`/builds/${b.buildId}`}>
                         {picofaradFigure(b.typicalF)}
                       </Link>
                     </Td>
-                    <Td numeric>
+                    <Td numeric className="whitespace-nowrap">
                       <Link className={link} href={`/builds/${b.buildId}`}>
                         {picofaradSpread(b.spreadF)}
                       </Link>
                     </Td>
-                    <Td numeric>
+                    <Td numeric className="whitespace-nowrap">
                       <Link className={link} href={`/builds/${b.buildId}`} aria-label={`${b.runCount} trusted runs over ${b.segmentCount} stretches between tweaks`}>
                         {b.runCount} / {b.segmentCount - 1}T
                       </Link>
                     </Td>
-                    <Td numeric>
+                    <Td numeric className="whitespace-nowrap">
                       <Link className={link} href={`/builds/${b.buildId}`}>
                         {b.typicalF < 0 ? inductanceErrorText(b.inductanceErrorFraction) : "—"}
                       </Link>
