@@ -25,6 +25,7 @@ export const REQUEST_EXAMPLES = {
   completeUpload: { channel: "CH1", probe: "10x", supplyV: 12, temperatureC: 23.5, note: "After the C2 swap." },
   reviewBuild: { decision: "accept", comment: "Within 0.3 % of target, THD 1.8 %." },
   planRetune: { series: "E24" },
+  setBuildTimebase: { timebasePpm: 25 },
 } as const;
 
 export type ExampleOperation = keyof typeof REQUEST_EXAMPLES;

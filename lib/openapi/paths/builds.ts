@@ -46,7 +46,7 @@ export function registerBuildPaths(registry: OpenAPIRegistry): void {
       "`{timebasePpm}`: the ± ppm accuracy of the scope's timebase on this bench (0–10000), or null to clear it. It is root-sum-squared into the absolute uncertainty of the build's frequencies; a frequency rule inside its limit by less than it is cannot judge. Verdicts already stored change at the next analysis or re-analysis.",
     action: "build:create",
     params: buildParams,
-    body: jsonBody(timebaseInputSchema, "TimebaseInput", { example: { timebasePpm: 25 } }),
+    body: jsonBody(timebaseInputSchema, "TimebaseInput", { example: REQUEST_EXAMPLES.setBuildTimebase }),
     responses: { 200: jsonResponse(buildSchema, "The build.") },
   });
   registerOperation(registry, {
@@ -97,7 +97,8 @@ export function registerBuildPaths(registry: OpenAPIRegistry): void {
       "multipart/form-data with the CSV in `file` and the optional fields below. The file streams to object storage " +
       "as it arrives (never held in memory), the build's as-built values and prediction are snapshotted with the run, " +
       "and the analysis is queued: poll GET /api/v1/runs/{id} until `status` is done or failed. " +
-      "Send an Idempotency-Key to make retries safe: a retry with the same key answers 200 with the first run.",
+      "Send an Idempotency-Key to make retries safe: a retry with the same key answers 200 with the first run, " +
+      "also while the first is still running; the same key with another file or other details is a 422.",
     action: "run:upload",
     params: buildParams,
     headers: z.object({
@@ -123,6 +124,7 @@ export function registerBuildPaths(registry: OpenAPIRegistry): void {
       409: duplicateCapture("The same file (SHA-256) is already logged on this build; `existingRunId` names it. Send keepDuplicate=true to keep a copy."),
       413: "The file (or the announced Content-Length) is over the capture limit, UPLOAD_LIMIT_BYTES (500 MB unless configured).",
       415: "The request is not multipart/form-data, or the file is not a CSV by name or type.",
+      422: "The Idempotency-Key was already used for a different upload (another file, build or details); send a new key.",
     },
   });
 }

@@ -6,6 +6,7 @@ import { describe, expect, it } from "vitest";
 import { z } from "zod";
 import { buildOpenApiDocument, ROLE_EXTENSION } from "@/lib/openapi";
 import { REQUEST_EXAMPLES, type ExampleOperation } from "@/lib/openapi/examples";
+import { timebaseInputSchema } from "@/lib/validations/timebase";
 import { signInSchema } from "@/lib/validations/auth";
 import { buildInputSchema } from "@/lib/validations/build";
 import { designInputSchema, designPatchSchemaFor } from "@/lib/validations/design";
@@ -59,6 +60,7 @@ const EXAMPLE_SCHEMAS: Record<ExampleOperation, z.ZodType> = {
   completeUpload: uploadCompleteSchema,
   reviewBuild: buildReviewInputSchema,
   planRetune: retunePlanSchema.pick({ series: true }),
+  setBuildTimebase: timebaseInputSchema,
 };
 
 /** Request components and the lib/validations schema each one is generated from. */
@@ -74,6 +76,7 @@ const REQUEST_COMPONENTS: Record<string, z.ZodType> = {
   UploadComplete: uploadCompleteSchema,
   BuildReviewInput: buildReviewInputSchema,
   RunUpload: runMetadataSchema,
+  TimebaseInput: timebaseInputSchema,
 };
 
 describe("buildOpenApiDocument", () => {
