@@ -33,7 +33,7 @@ export const SECURITY_SCHEMES = {
   },
 } as const;
 
-export type ProblemStatus = 400 | 401 | 403 | 404 | 409 | 413 | 415 | 429;
+export type ProblemStatus = 400 | 401 | 403 | 404 | 409 | 413 | 415 | 422 | 429;
 
 /** What an error status means for one operation: a sentence, or a sentence and a body richer than Problem. */
 export type ProblemNote = string | { description: string; schema: z.ZodType };

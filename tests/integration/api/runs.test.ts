@@ -59,9 +59,9 @@ describe("POST /api/v1/builds/{buildId}/runs", () => {
     expect(retry.body.id).toBe(first.body.id);
     expect(retry.headers["idempotent-replayed"]).toBe("true");
     expect(retry.headers.location).toBe(`/api/v1/runs/${first.body.id}`);
-    // Even a different file under the same key answers the first run: the key, not the bytes, names the upload.
+    // A different file under the same key is another request, refused with 422 (draft-ietf-httpapi-idempotency-key-header §2.7).
     const sameKeyOtherFile = await uploadCapture(fx.buildId, fx.team.technician, captureCsv(predictedHz, 32), {}, { idempotencyKey: key });
-    expect(sameKeyOtherFile.body.id).toBe(first.body.id);
+    expectProblem(sameKeyOtherFile, 422);
     const list = await api("get", `/api/v1/builds/${fx.buildId}/runs`, fx.team.viewer).query({ limit: 200 });
     expect(list.body.items.filter((r: { id: string }) => r.id === first.body.id)).toHaveLength(1);
   });

@@ -115,9 +115,10 @@ describe("design PATCH that changes nothing", () => {
     return Number(row.count);
   }
 
-  it("answers 400 for {} , an unknown key, an unknown topology and another topology, and writes no revision", async () => {
+  it("answers 400 for {}, a blank note alone, an unknown key, an unknown topology and another topology, and writes no revision", async () => {
     const before = await revisionCount();
     expect(expectProblem(await sendJson("patch", `/api/v1/designs/${fx.designId}`, fx.team.engineer, {}), 400).detail).toMatch(/^Nothing to change/);
+    expect(expectProblem(await sendJson("patch", `/api/v1/designs/${fx.designId}`, fx.team.engineer, { changeNote: "  " }), 400).detail).toMatch(/^Nothing to change/);
     expect(expectProblem(await sendJson("patch", `/api/v1/designs/${fx.designId}`, fx.team.engineer, { colour: "red" }), 400).fields).toHaveProperty("colour");
     expect(expectProblem(await sendJson("patch", `/api/v1/designs/${fx.designId}`, fx.team.engineer, { topology: "flux-capacitor" }), 400).detail).toMatch(/^Unknown topology/);
     expect(expectProblem(await sendJson("patch", `/api/v1/designs/${fx.designId}`, fx.team.engineer, { topology: "hartley" }), 400).detail).toContain("fixed");

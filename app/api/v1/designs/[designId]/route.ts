@@ -50,9 +50,10 @@ export const PATCH = apiHandler<Params>({ action: "design:write" }, async (reque
   const body = await readJson(request);
   checkPatchBody(body, current.topology);
   const patch = designPatchSchemaFor(current.topology).parse(body);
+  // A note alone is a deliberate entry in the design's history; an empty body is not.
   const changes = [patch.name, patch.parts, patch.extraCapacitanceF, patch.windings, patch.spec];
-  if (changes.every((v) => v === undefined)) {
-    throw new BadRequestError("Nothing to change: send at least one of name, parts, extraCapacitance, windings or spec.");
+  if (changes.every((v) => v === undefined) && patch.changeNote === "") {
+    throw new BadRequestError("Nothing to change: send at least one of name, parts, extraCapacitance, windings, spec or changeNote.");
   }
   const design = await reviseDesign({ user }, designId, patch);
   return Response.json(designJson(design, predictDesign(design).prediction));
