@@ -1,8 +1,11 @@
+import { mkdirSync, rmSync, writeFileSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/index";
 import { closeLucia } from "@/lib/auth/lucia";
-import { api, sendJson } from "../../integration/api/helpers";
+import { api, captureCsv, sendJson, uploadCapture, waitForRun } from "../../integration/api/helpers";
 import { launchBrowser } from "../../helpers/browser";
 import { appUrl } from "../../helpers/stack";
 import { freshPage, journeyPerson, scene, signIn, type JourneyPerson, type Scene } from "./helpers";
@@ -93,4 +96,50 @@ describe("the bench workflow fixes", () => {
     expect(errors).toEqual([]);
     await context.close();
   }, 120_000);
+
+  it("a deep zoom of the waveform draws the stored samples", async () => {
+    // 20 000 samples at 50 MS/s: four halvings of the view leave 1250 samples, under the 4000 that fetch them.
+    const res = await uploadCapture(world.buildId, technician, captureCsv(411e3, 4242));
+    expect(res.status, res.text).toBe(201);
+    expect((await waitForRun(res.body.id, technician)).status).toBe("done");
+    const { page, context, errors } = await freshPage(browser);
+    await signIn(page, engineer);
+    await page.goto(`${appUrl()}/runs/${res.body.id}`);
+    const chart = page.getByRole("img", { name: /^Waveform of/ });
+    await chart.waitFor({ timeout: 60_000 });
+    await chart.focus();
+    const excerpt = page.waitForResponse((r) => new URL(r.url()).pathname === `/api/v1/runs/${res.body.id}/excerpt`, { timeout: 30_000 });
+    for (let i = 0; i < 4; i++) await page.keyboard.press("+");
+    expect((await excerpt).status()).toBe(200);
+    const samples = page.getByTestId("waveform-samples");
+    await samples.waitFor({ timeout: 30_000 });
+    expect(Number(/^(\d+) samples/.exec((await samples.textContent()) ?? "")?.[1])).toBeGreaterThan(1000);
+    await page.getByRole("button", { name: "Back to the whole record" }).click();
+    await page.getByRole("img", { name: /^Waveform of/ }).waitFor();
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 120_000);
+
+  it("the upload form refuses a PNG and a file without a clock before uploading", async () => {
+    const dir = path.join(os.tmpdir(), `bench-fixes-${process.pid}`);
+    const png = path.join(dir, "scope.png");
+    const zeit = path.join(dir, "zeit.csv");
+    rmSync(dir, { recursive: true, force: true });
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(png, Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52]));
+    writeFileSync(zeit, "Zeit (s);Kanal 1 (V)\n" + Array.from({ length: 100 }, (_, i) => `${i};0,${i % 10}`).join("\n") + "\n");
+    const { page, context, errors } = await freshPage(browser);
+    await signIn(page, technician);
+    await page.goto(`${appUrl()}/builds/${world.buildId}`);
+    const form = page.getByRole("form", { name: "Upload a capture" });
+    await form.locator('input[type="file"]').setInputFiles(png);
+    await form.getByRole("alert").filter({ hasText: /binary/ }).waitFor({ timeout: 30_000 });
+    expect(await form.getByRole("button", { name: "Upload and analyse" }).isDisabled()).toBe(true);
+    await form.locator('input[type="file"]').setInputFiles(zeit);
+    await form.getByRole("alert").filter({ hasText: /No time column/ }).waitFor({ timeout: 30_000 });
+    expect(await form.getByRole("button", { name: "Upload and analyse" }).isDisabled()).toBe(true);
+    rmSync(dir, { recursive: true, force: true });
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 60_000);
 });
