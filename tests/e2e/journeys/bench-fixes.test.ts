@@ -8,7 +8,7 @@ import { closeLucia } from "@/lib/auth/lucia";
 import { api, captureCsv, sendJson, uploadCapture, waitForRun } from "../../integration/api/helpers";
 import { launchBrowser } from "../../helpers/browser";
 import { appUrl } from "../../helpers/stack";
-import { freshPage, journeyPerson, scene, signIn, type JourneyPerson, type Scene } from "./helpers";
+import { expectNoHorizontalOverflow, freshPage, journeyPerson, scene, signIn, type JourneyPerson, type Scene } from "./helpers";
 
 // Two things a first-time user found broken: a planned tweak had no control that applies it, and the People
 // page's role select kept showing the old role after "Role saved." (a second Save then sent the old role back).
@@ -142,4 +142,26 @@ describe("the bench workflow fixes", () => {
     expect(errors).toEqual([]);
     await context.close();
   }, 60_000);
+
+  it("the compare page at 390 px shows the verdicts, the target, B − A and the judgement without sideways scrolling", async () => {
+    const first = await uploadCapture(world.buildId, technician, captureCsv(400e3, 5151));
+    const second = await uploadCapture(world.buildId, technician, captureCsv(410e3, 5152));
+    for (const res of [first, second]) {
+      expect(res.status, res.text).toBe(201);
+      expect((await waitForRun(res.body.id, technician)).status).toBe("done");
+    }
+    const { page, context, errors } = await freshPage(browser, 390);
+    await signIn(page, engineer);
+    await page.goto(`${appUrl()}/runs/compare?a=${first.body.id}&b=${second.body.id}`);
+    const list = page.locator("dl", { has: page.getByText("Target frequency") });
+    await list.waitFor({ timeout: 30_000 });
+    await list.getByText("Verdict", { exact: true }).waitFor();
+    // 400 kHz is outside 411 kHz ± 2 % (402.78..419.22 kHz) and 410 kHz inside: B is on target, whatever moved.
+    const measured = list.locator(":scope > div").filter({ has: page.getByText("Measured frequency", { exact: true }) });
+    await measured.getByText("B on target, A off target").waitFor();
+    expect(await measured.getByText("B − A").isVisible()).toBe(true);
+    await expectNoHorizontalOverflow(page, "compare at 390 px");
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 180_000);
 });
