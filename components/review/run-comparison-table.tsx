@@ -93,9 +93,9 @@ export function RunComparisonTable({ comparison, a, b }: { comparison: RunCompar
             <dt className="text-sm font-medium text-ink">{r.label}</dt>
             <dd className="num mt-1 grid grid-cols-[auto_1fr] gap-x-3 font-mono text-[13px]">
               <span className="text-ink-faint">A</span>
-              <span>{value(r.unit, r.a)}</span>
+              <span>{r.missing?.a ?? value(r.unit, r.a)}</span>
               <span className="text-ink-faint">B</span>
-              <span>{value(r.unit, r.b)}</span>
+              <span>{r.missing?.b ?? value(r.unit, r.b)}</span>
               <span className="text-ink-faint">B − A</span>
               <span className="font-semibold">{change(r.unit, r.change)}</span>
             </dd>
@@ -140,8 +140,8 @@ export function RunComparisonTable({ comparison, a, b }: { comparison: RunCompar
           {c.rows.map((r) => (
             <Tr key={r.key}>
               <Td className="text-sm text-ink">{r.label}</Td>
-              <Td numeric className="whitespace-nowrap">{value(r.unit, r.a)}</Td>
-              <Td numeric className="whitespace-nowrap">{value(r.unit, r.b)}</Td>
+              <Td numeric className="whitespace-nowrap">{r.missing?.a ?? value(r.unit, r.a)}</Td>
+              <Td numeric className="whitespace-nowrap">{r.missing?.b ?? value(r.unit, r.b)}</Td>
               <Td numeric className="whitespace-nowrap font-semibold">{change(r.unit, r.change)}</Td>
               <Td className="text-xs text-ink-soft">
                 <Better text={betterText(r)} mark={r.better} />

@@ -23,8 +23,11 @@ export interface ComparableRun {
   snrDb: number | null;
   sfdrDb: number | null;
   inRecordDriftPpm: number | null;
-  /** Harmonic levels by order (2, 3, …), dBc. */
-  harmonics: ReadonlyArray<{ order: number; dBc: number | null }>;
+  /**
+   * Harmonic levels by order (2, 3, …), dBc; an order under the noise has dBc null and its detection limit, one
+   * that could not be separated has status "not-separable".
+   */
+  harmonics: ReadonlyArray<{ order: number; dBc: number | null; detectionLimitDbc?: number | null; status?: string | null }>;
   /** The spec the run was judged against (its snapshot's); absent or null for none. */
   spec?: DesignSpec | null;
   verdict?: ComparableVerdict;
@@ -52,6 +55,8 @@ export interface MetricDifference {
   basis: "spec" | "target" | "direction" | null;
   /** With basis spec or target: whether each run is within the limit (null when its figure is missing, or no window). */
   within: { a: boolean | null; b: boolean | null } | null;
+  /** Why a side has no figure, in a few words ("< −72.0 dBc" under the noise, "not separable"); absent when it has one. */
+  missing?: { a?: string; b?: string };
 }
 
 export interface RunComparison {
@@ -164,10 +169,18 @@ export function compareRuns(a: ComparableRun, b: ComparableRun): RunComparison {
     row("inRecordDriftPpm", "In-record drift", "ppm", a.inRecordDriftPpm, b.inRecordDriftPpm, "closer-to-zero", limits.inRecordDrift),
   ];
   const orders = [...new Set([...a.harmonics, ...b.harmonics].map((h) => h.order))].filter((o) => o >= 2).sort((x, y) => x - y);
+  const why = (h: ComparableRun["harmonics"][number] | undefined): string | undefined => {
+    if (!h || finite(h.dBc) !== null) return undefined;
+    if (h.status === "not-separable") return "not separable";
+    const limitDbc = finite(h.detectionLimitDbc);
+    return limitDbc !== null ? `< ${limitDbc.toFixed(1).replace("-", "−")} dBc` : undefined;
+  };
   for (const order of orders) {
-    const la = a.harmonics.find((h) => h.order === order)?.dBc;
-    const lb = b.harmonics.find((h) => h.order === order)?.dBc;
-    rows.push(row(`harmonic-${order}`, `Harmonic ${order}`, "dBc", la, lb, "lower", limits.harmonic));
+    const ha = a.harmonics.find((h) => h.order === order);
+    const hb = b.harmonics.find((h) => h.order === order);
+    const r = row(`harmonic-${order}`, `Harmonic ${order}`, "dBc", ha?.dBc, hb?.dBc, "lower", limits.harmonic);
+    const missing = { a: why(ha), b: why(hb) };
+    rows.push(missing.a || missing.b ? { ...r, missing } : r);
   }
 
   const fa = finite(a.measuredHz);

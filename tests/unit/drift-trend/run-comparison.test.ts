@@ -118,3 +118,17 @@ describe("compareRuns", () => {
     expect(c.rows.find((r) => r.key === "measuredHz")!.within).toEqual({ a: false, b: true });
   });
 });
+
+describe("harmonics under the noise", () => {
+  it("shows an undetected order as '< limit dBc' and one that could not be separated as such, never as a level", () => {
+    const base = {
+      measuredHz: 1e6, frequencyUncertaintyHz: 1, predictedHz: null, driftPpm: null, impliedExtraCapacitanceF: null, fundamentalVpk: 1,
+      thdPercent: null, worstHarmonicDbc: null, sinadDb: null, snrDb: null, sfdrDb: null, inRecordDriftPpm: null,
+    };
+    const a = { ...base, harmonics: [{ order: 2, dBc: -40 }, { order: 3, dBc: null, detectionLimitDbc: -72, status: "below-detection" }] };
+    const b = { ...base, harmonics: [{ order: 2, dBc: null, status: "not-separable" }, { order: 3, dBc: -50 }] };
+    const rows = compareRuns(a, b).rows;
+    expect(rows.find((r) => r.key === "harmonic-3")?.missing).toEqual({ a: "< −72.0 dBc", b: undefined });
+    expect(rows.find((r) => r.key === "harmonic-2")?.missing).toEqual({ a: undefined, b: "not separable" });
+  });
+});

@@ -46,7 +46,7 @@ function comparable(run: Run): ComparableRun {
     snrDb: f.snrDb,
     sfdrDb: f.sfdrDb,
     inRecordDriftPpm: run.inRecordDriftPpm ?? f.inRecordDriftPpm,
-    harmonics: f.harmonics.map((h) => ({ order: h.order, dBc: h.dBc })),
+    harmonics: f.harmonics.map((h) => ({ order: h.order, dBc: h.dBc, detectionLimitDbc: h.detectionLimitDbc, status: h.status })),
     // Judged against the spec the run was judged against at the bench, not today's.
     spec: run.snapshot.spec ?? null,
     verdict: run.verdict,
