@@ -15,6 +15,8 @@ const MINIMUM_ROLE: Record<string, Role> = {
   "PATCH /api/v1/designs/{designId}": "engineer",
   "POST /api/v1/designs/{designId}/builds": "technician",
   "POST /api/v1/builds/{buildId}/tweaks": "technician",
+  "POST /api/v1/builds/{buildId}/tweaks/{tweakId}/apply": "technician",
+  "PATCH /api/v1/builds/{buildId}": "technician",
   "POST /api/v1/builds/{buildId}/runs": "technician",
   "POST /api/v1/runs/{runId}/reanalyse": "technician",
   "POST /api/v1/uploads": "technician",
@@ -68,6 +70,11 @@ async function request(operation: string, who: ApiPerson | null): Promise<Test> 
       return sendJson("post", `/api/v1/designs/${fx.designId}/builds`, who, { label: unique("BB"), kind: "breadboard" });
     case "POST /api/v1/builds/{buildId}/tweaks":
       return sendJson("post", `/api/v1/builds/${fx.buildId}/tweaks`, who, { note: unique("note") });
+    case "POST /api/v1/builds/{buildId}/tweaks/{tweakId}/apply":
+      // A tweak id that is not there: an allowed caller gets 404, a refused one the role's 403 first.
+      return api("post", `/api/v1/builds/${fx.buildId}/tweaks/00000000-0000-4000-8000-000000000000/apply`, who);
+    case "PATCH /api/v1/builds/{buildId}":
+      return sendJson("patch", `/api/v1/builds/${fx.buildId}`, who, { timebasePpm: 25 });
     case "POST /api/v1/builds/{buildId}/runs":
       return uploadCapture(fx.buildId, who, captureCsv(405e3, seed++));
     case "POST /api/v1/runs/{runId}/reanalyse":
