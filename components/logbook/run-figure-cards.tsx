@@ -12,6 +12,7 @@ import {
   formatThd,
   formatWithUncertainty,
 } from "@/lib/format/numbers";
+import { absoluteUncertaintyHz } from "@/lib/drift-trend/absolute-uncertainty";
 import type { DriftAnalysis } from "@/lib/oscillator/drift";
 import type { RunFigures } from "./run-results";
 import type { RunData } from "./run-types";
@@ -45,7 +46,7 @@ function uncertaintyText(figures: RunFigures, timebasePpm: number | null): { det
     return { detail: `${f.uncertainty} (1σ statistical)`, note: `the scope's timebase is not in it: enter its accuracy on the build page${noise}` };
   }
   const timebaseHz = (figures.frequencyHz * timebasePpm) / 1e6;
-  const totalHz = Math.hypot(figures.frequencyUncertaintyHz, timebaseHz);
+  const totalHz = absoluteUncertaintyHz(figures.frequencyHz, figures.frequencyUncertaintyHz, timebasePpm) as number;
   return {
     detail: `± ${formatQuantity(totalHz, "Hz", 2)} total (1σ)`,
     note: `statistical ${f.uncertainty}${noise}; scope timebase ±${timebasePpm} ppm = ±${formatQuantity(timebaseHz, "Hz", 2)}`,

@@ -1,4 +1,5 @@
 import "server-only";
+import { absoluteUncertaintyHz } from "@/lib/drift-trend/absolute-uncertainty";
 import type { Build } from "@/db/queries/builds";
 import { getBuildTableRow, type BuildTableRow } from "@/db/queries/dashboard";
 import { listBuildFlags, type Flag } from "@/db/queries/flags";
@@ -110,7 +111,8 @@ export async function loadBuildReview(
       createdAt: new Date(r.createdAt).toISOString(),
       originalFilename: r.originalFilename,
       measuredHz: r.measuredHz,
-      frequencyUncertaintyHz: r.frequencyUncertaintyHz,
+      // Against the prediction and the target: the absolute figure, with the bench's timebase in it.
+      frequencyUncertaintyHz: absoluteUncertaintyHz(r.measuredHz, r.frequencyUncertaintyHz, build.timebasePpm),
       predictedHz: r.snapshot.predictedHz ?? r.predictedHz,
       worstCase: r.snapshot.worstCase,
       statistical: r.snapshot.statistical,

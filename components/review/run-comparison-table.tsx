@@ -74,7 +74,11 @@ export function RunComparisonTable({ comparison, a, b }: { comparison: RunCompar
           <span aria-hidden="true">{c.frequencyChangeSignificant ? "↕ " : "= "}</span>
           {c.frequencyChangeSignificant
             ? `The frequency moved by ${formatPpm(c.frequencyChangePpm)}, more than twice the combined uncertainty (± ${formatQuantity(c.frequencyChangeUncertaintyHz, "Hz", 2)}): a real change.`
-            : `The frequency change (${formatPpm(c.frequencyChangePpm)}) is within twice the combined uncertainty (± ${formatQuantity(c.frequencyChangeUncertaintyHz, "Hz", 2)}): not distinguishable from noise.`}
+            : `The frequency change (${formatPpm(c.frequencyChangePpm)}) is within twice the combined uncertainty (± ${formatQuantity(c.frequencyChangeUncertaintyHz, "Hz", 2)}): not distinguishable from noise.`}{" "}
+          <span className="text-ink-soft">
+            Both runs are of one build on one bench, so the scope&apos;s timebase error is common to both and cancels in the change; the
+            uncertainty here is the captures&apos; own (statistical).
+          </span>
         </p>
       ) : null}
       <dl className="divide-y divide-rule rounded-lg border border-rule sm:hidden" aria-label="Figures of both runs and their change">
