@@ -16,7 +16,6 @@ import { captureObjectKey, deleteObject, headObject, presignGet, putObject } fro
 import type { RunMetadata } from "@/lib/validations/run";
 import { checkCaptureFile, checkCaptureSize, formatBytes, meterStream, sha256OfObject, uploadLimitBytes } from "./capture-files";
 import { refuseUnreadableCapture } from "./capture-precheck";
-import { refuseUnreadableCapture } from "./capture-precheck";
 import { audit, isId, type Actor } from "./context";
 import { oscillatorDesign, runSnapshot } from "./prediction";
 
@@ -106,7 +105,6 @@ export async function registerRun(actor: Actor, input: RegisterRunInput): Promis
     });
   }
   if (info.sizeBytes === 0) throw new BadRequestError("The file is empty.", { file: ["empty"] });
-  await refuseUnreadableCapture(input.objectKey, info.sizeBytes);
   await refuseUnreadableCapture(input.objectKey, info.sizeBytes);
   const sha256 = input.sha256 ?? (await sha256OfObject(input.objectKey));
 
