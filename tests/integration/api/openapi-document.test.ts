@@ -125,9 +125,9 @@ describe("buildOpenApiDocument", () => {
     }
   });
 
-  it("lists the issue's error statuses on the capture upload, with the duplicate's existingRunId", () => {
+  it("lists the error statuses on the capture upload (422 for a reused Idempotency-Key with another body), with the duplicate's existingRunId", () => {
     const upload = document.paths["/api/v1/builds/{buildId}/runs"].post as { responses: Record<string, { content?: Record<string, { schema: { $ref?: string } }> }> };
-    expect(Object.keys(upload.responses).sort()).toEqual(["200", "201", "400", "401", "403", "404", "409", "413", "415", "429"]);
+    expect(Object.keys(upload.responses).sort()).toEqual(["200", "201", "400", "401", "403", "404", "409", "413", "415", "422", "429"]);
     expect(upload.responses["409"].content!["application/problem+json"].schema.$ref).toBe("#/components/schemas/DuplicateCaptureProblem");
     expect(Object.keys(document.components.securitySchemes)).toEqual(["bearerToken", "sessionCookie"]);
   });
