@@ -63,6 +63,9 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
   if (!run || run.status === "done" || run.status === "failed") return "skipped";
   const attempt = await claimRun(runId);
   if (attempt === null) return "skipped";
+  // The bench's scope timebase accuracy, read now while the database answers (after the analysis only the result
+  // write may wait for it): it limits what a frequency rule can decide.
+  const timebasePpm = (await getBuild(run.buildId))?.timebasePpm ?? null;
 
   let output: AnalysisTaskOutput;
   try {
@@ -95,8 +98,6 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
   const { result, plot } = output;
   const thdPercent = result.thdPercent !== null && Number.isFinite(result.thdPercent) ? result.thdPercent : null;
   const inRecordDriftPpm = result.inRecordDrift?.ppm ?? null;
-  // The bench's scope timebase accuracy as the build records it now: it limits what a frequency rule can decide.
-  const timebasePpm = (await getBuild(run.buildId))?.timebasePpm ?? null;
   const evaluation = evaluateSpec(run.snapshot.spec ?? {}, {
     timebasePpm,
     frequencyHz: result.frequencyHz,
