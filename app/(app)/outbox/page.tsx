@@ -5,7 +5,7 @@ import { PageHeader } from "@/components/ui/page-header";
 import { requireUser } from "@/lib/auth/current-user";
 import { outboxAvailable } from "@/lib/auth/outbox-available";
 import { can } from "@/lib/auth/permissions";
-import { listHeldMessages } from "@/lib/mail/outbox";
+import { listOutboxFor } from "@/lib/mail/outbox-view";
 import type { HeldMessage } from "@/lib/mail";
 import { ForbiddenNotice } from "../forbidden-notice";
 import { formatUtc } from "../format-time";
@@ -27,7 +27,7 @@ export default async function OutboxPage() {
   let messages: HeldMessage[] = [];
   let problem: string | null = null;
   try {
-    messages = await listHeldMessages();
+    messages = await listOutboxFor(user);
   } catch (err) {
     problem = err instanceof Error ? err.message : String(err);
   }
@@ -35,7 +35,7 @@ export default async function OutboxPage() {
     <>
       <PageHeader
         title="Outbox"
-        description="Development only: every e-mail Tankbook sent, as the local fake mail server holds it. Nothing here left this machine."
+        description="Development only: every e-mail Tankbook sent, as the local fake mail server holds it. Nothing here left this machine. Password-reset links of other accounts are hidden outside npm run dev."
       />
       {problem ? (
         <p role="alert" className="rounded-md border border-verdict-fail/40 bg-verdict-failBg px-3 py-2 text-sm text-verdict-fail">
