@@ -82,12 +82,14 @@ describe("technician journey", () => {
     await bar.waitFor({ timeout: 20_000 });
     const values: number[] = [];
     for (let i = 0; i < 40 && (await bar.count()) > 0; i++) {
-      const now = Number(await bar.getAttribute("aria-valuenow").catch(() => null));
+      // The bar can go between count() and getAttribute (the upload finished): null then, which is not a reading of 0.
+      const raw = await bar.getAttribute("aria-valuenow", { timeout: 1_000 }).catch(() => null);
+      const now = raw === null ? Number.NaN : Number(raw);
       if (Number.isFinite(now) && values[values.length - 1] !== now) values.push(now);
       await page.waitForTimeout(150);
     }
     expect(values.length, `progress values seen: ${values.join(", ")}`).toBeGreaterThanOrEqual(2);
-    expect(values.every((v, i) => i === 0 || v >= values[i - 1])).toBe(true);
+    expect(values.every((v, i) => i === 0 || v >= values[i - 1]), `progress values seen: ${values.join(", ")}`).toBe(true);
     await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
     await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/, { timeout: 60_000 });
     expect(errors).toEqual([]);
