@@ -17,6 +17,11 @@ function cannotJudge(check: Omit<SpecCheck, "passed" | "outcome">): SpecCheck {
   return { ...check, passed: false, outcome: "cannot-judge" };
 }
 
+/** What would let a rule that needs every harmonic be judged: a sample rate that keeps them apart. */
+function samplingAdvice(neededSampleRateHz: number | null | undefined): string | null {
+  return neededSampleRateHz ? `sample at ≥ ${formatEngineering(neededSampleRateHz, "S/s", 2)} to see every harmonic` : null;
+}
+
 function judged(check: Omit<SpecCheck, "outcome">): SpecCheck {
   return { ...check, outcome: outcomeOf(check.passed) };
 }
@@ -88,12 +93,11 @@ function thdCheck(spec: DesignSpec, m: SpecMeasurements): SpecCheck | null {
   const base = { rule: "thd", limit, unit: "%" };
   const thd = m.thd;
   if (thd?.status === "not-measurable" || (!thd && !isSet(m.thdPercent))) {
-    const advice = thd?.neededSampleRateHz ? `sample at ≥ ${formatEngineering(thd.neededSampleRateHz, "S/s", 2)} to see every harmonic` : null;
     return cannotJudge({
       ...base,
       measured: null,
       margin: null,
-      advice,
+      advice: samplingAdvice(thd?.neededSampleRateHz),
       message: `Cannot judge THD against the ${limit} % limit: ${thd?.note ?? "THD could not be measured on this capture"}.`,
     });
   }
@@ -125,6 +129,7 @@ function harmonicChecks(spec: DesignSpec, m: SpecMeasurements, neededSampleRateH
   const checks: SpecCheck[] = [];
   for (const h of m.harmonics) {
     const rule = `harmonic-${h.order}`;
+    const undecided = { rule, measured: null, limit, margin: null, unit: "dBc" };
     const status = h.status ?? (isSet(h.dBc) ? "measured" : undefined);
     if (status === "measured" && isSet(h.dBc)) {
       const margin = limit - h.dBc;
@@ -157,11 +162,7 @@ function harmonicChecks(spec: DesignSpec, m: SpecMeasurements, neededSampleRateH
       } else {
         checks.push(
           cannotJudge({
-            rule,
-            measured: null,
-            limit,
-            margin: null,
-            unit: "dBc",
+            ...undecided,
             advice: "a cleaner or longer capture lowers the detection limit",
             message: `Cannot judge harmonic ${h.order} against ${limit} dBc: it is under the noise, but this capture can only tell levels above ${fixed(detection, 1)} dBc.`,
           }),
@@ -170,12 +171,8 @@ function harmonicChecks(spec: DesignSpec, m: SpecMeasurements, neededSampleRateH
     } else if (status === "not-separable") {
       checks.push(
         cannotJudge({
-          rule,
-          measured: null,
-          limit,
-          margin: null,
-          unit: "dBc",
-          advice: neededSampleRateHz ? `sample at ≥ ${formatEngineering(neededSampleRateHz, "S/s", 2)} to see every harmonic` : null,
+          ...undecided,
+          advice: samplingAdvice(neededSampleRateHz),
           message: `Cannot judge harmonic ${h.order} against ${limit} dBc: at this sample rate it lands on another component and cannot be measured.`,
         }),
       );
