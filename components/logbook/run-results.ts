@@ -2,6 +2,7 @@
  * Reads the engine's stored result object into the few things the run page shows, falling back to the run's
  * result columns. Kept apart from the components so the mapping is one small, testable place.
  */
+import type { HarmonicStatus, ThdSummary } from "@/lib/analysis/analysis-result";
 import type { SpecMeasurements } from "@/lib/spec/types";
 import type { RunData } from "./run-types";
 
@@ -11,7 +12,7 @@ export interface HarmonicRow {
   amplitudeVpk: number | null;
   dBc: number | null;
   /** Absent on results from before engine 1.2 (then a level means measured). */
-  status: "measured" | "below-detection" | "not-separable" | null;
+  status: HarmonicStatus | null;
   folded: boolean;
   seenAtHz: number | null;
   detectionLimitDbc: number | null;
@@ -25,15 +26,8 @@ export interface SpurRow {
   label: string;
 }
 
-/** THD's status and floor (engine 1.2 on); null on older results. */
-export interface ThdRow {
-  status: "measured" | "below-floor" | "not-measurable";
-  floorPercent: number;
-  upperBoundPercent: number | null;
-  detectedOrders: number[];
-  note: string | null;
-  neededSampleRateHz: number | null;
-}
+/** THD's status and floor as the engine stores them (engine 1.2 on); null on older results. */
+export type ThdRow = ThdSummary;
 
 export interface WarningRow {
   code: string;
