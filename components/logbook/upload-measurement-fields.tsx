@@ -49,32 +49,26 @@ export function UploadMeasurementFields({ id, values, onChange, tweaks, errors, 
           <option value="100" />
         </datalist>
       </Field>
-      <Field id={id("supply")} label="Supply (V)" hint="Optional." errors={errors.supplyV}>
-        <Input
-          id={id("supply")}
-          inputMode="decimal"
-          value={values.supply}
-          onChange={(e) => onChange("supply", e.target.value)}
-          disabled={disabled}
-          placeholder="e.g. 9"
-          aria-describedby={describedBy(id("supply"))}
-          aria-invalid={errors.supplyV ? true : undefined}
-          className="num font-mono"
-        />
-      </Field>
-      <Field id={id("temperature")} label="Temperature (°C)" hint="Optional: at the board." errors={errors.temperatureC}>
-        <Input
-          id={id("temperature")}
-          inputMode="decimal"
-          value={values.temperature}
-          onChange={(e) => onChange("temperature", e.target.value)}
-          disabled={disabled}
-          placeholder="e.g. 23.5"
-          aria-describedby={describedBy(id("temperature"))}
-          aria-invalid={errors.temperatureC ? true : undefined}
-          className="num font-mono"
-        />
-      </Field>
+      <OptionalNumberField
+        fieldId={id("supply")}
+        label="Supply (V)"
+        hint="Optional."
+        value={values.supply}
+        onChange={(v) => onChange("supply", v)}
+        placeholder="e.g. 9"
+        errors={errors.supplyV}
+        disabled={disabled}
+      />
+      <OptionalNumberField
+        fieldId={id("temperature")}
+        label="Temperature (°C)"
+        hint="Optional: at the board."
+        value={values.temperature}
+        onChange={(v) => onChange("temperature", v)}
+        placeholder="e.g. 23.5"
+        errors={errors.temperatureC}
+        disabled={disabled}
+      />
       <Field
         id={id("tweak")}
         label="This run follows tweak"
@@ -108,5 +102,34 @@ export function UploadMeasurementFields({ id, values, onChange, tweaks, errors, 
         />
       </Field>
     </>
+  );
+}
+
+/** A decimal input with its label, hint and errors, for the optional bench readings. */
+function OptionalNumberField(props: {
+  fieldId: string;
+  label: string;
+  hint: string;
+  value: string;
+  onChange: (value: string) => void;
+  placeholder: string;
+  errors: string[] | undefined;
+  disabled: boolean;
+}) {
+  const { fieldId, errors } = props;
+  return (
+    <Field id={fieldId} label={props.label} hint={props.hint} errors={errors}>
+      <Input
+        id={fieldId}
+        inputMode="decimal"
+        value={props.value}
+        onChange={(e) => props.onChange(e.target.value)}
+        disabled={props.disabled}
+        placeholder={props.placeholder}
+        aria-describedby={describedBy(fieldId)}
+        aria-invalid={errors ? true : undefined}
+        className="num font-mono"
+      />
+    </Field>
   );
 }
