@@ -1,10 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { TOPOLOGY_NAMES } from "@/components/logbook/design-model";
 import { LayoutFigureCard } from "@/components/layouts/layout-figure-card";
 import { buttonVariants } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Select } from "@/components/ui/field";
+import { TopologyFilterSelect } from "@/components/logbook/topology-filter-select";
 import { PageHeader } from "@/components/ui/page-header";
 import { requireUser } from "@/lib/auth/current-user";
 import { CONSTRUCTION_KINDS, constructionName } from "@/lib/layouts/construction";
@@ -70,14 +70,7 @@ export default async function LayoutsPage({ searchParams }: Search) {
           <label htmlFor="layout-topology" className="mb-1 block text-xs font-medium text-ink-soft">
             Topology
           </label>
-          <Select id="layout-topology" name="topology" defaultValue={topology ?? ""}>
-            <option value="">Every topology</option>
-            {TOPOLOGIES.map((t) => (
-              <option key={t} value={t}>
-                {TOPOLOGY_NAMES[t]}
-              </option>
-            ))}
-          </Select>
+          <TopologyFilterSelect id="layout-topology" value={topology} anyLabel="Every topology" />
         </div>
         <button type="submit" className={buttonVariants({ variant: "secondary", size: "md" })}>
           Show

@@ -10,7 +10,7 @@ import { SearchForm } from "@/components/logbook/search-form";
 import { SortableTable, type SortableRow } from "@/components/logbook/sortable-table";
 import { buttonVariants } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
-import { Select } from "@/components/ui/field";
+import { TopologyFilterSelect } from "@/components/logbook/topology-filter-select";
 import { PageHeader } from "@/components/ui/page-header";
 import { listDesigns, type DesignSummary } from "@/db/queries/designs";
 import type { Page } from "@/db/queries/pagination";
@@ -127,14 +127,7 @@ export default async function ProjectPage({ params, searchParams }: Props) {
           <label htmlFor="topology-filter" className="sr-only">
             Topology
           </label>
-          <Select id="topology-filter" name="topology" defaultValue={topology ?? ""}>
-            <option value="">All topologies</option>
-            {TOPOLOGIES.map((t) => (
-              <option key={t} value={t}>
-                {TOPOLOGY_NAMES[t]}
-              </option>
-            ))}
-          </Select>
+          <TopologyFilterSelect id="topology-filter" value={topology} anyLabel="All topologies" />
         </div>
       </SearchForm>
       {page.items.length === 0 ? (
