@@ -4,7 +4,6 @@
 // the real pipeline (stored, registered with a snapshot, queued for the worker). Runs again change nothing.
 import { randomUUID } from "node:crypto";
 import { getProjectByName } from "../../db/queries/projects";
-import type { CurrentUser } from "../../lib/auth/current-user-type";
 import { stopSender } from "../../lib/jobs/queue";
 import { createBuild } from "../../lib/logbook/builds";
 import { createDesign } from "../../lib/logbook/designs";
@@ -16,7 +15,7 @@ import { captureObjectKey, ensureBucket, putObject } from "../../lib/storage";
 import { designInputSchema } from "../../lib/validations/design";
 import { runMetadataSchema } from "../../lib/validations/run";
 import { synthCaptureCsv } from "../lib/synth-capture";
-import type { LogbookSeedContext } from "./logbook";
+import { asCurrentUser, type LogbookSeedContext } from "./logbook";
 
 const PROJECT = "Layout survey";
 const DAY_MS = 24 * 3600 * 1000;
@@ -40,10 +39,6 @@ const SURVEY: { label: string; kind: "breadboard" | "pcb"; kindRevision: string;
   { label: "SV-PCB-1", kind: "pcb", kindRevision: "rev C", addsPf: [3.1, 3.2, 3.0] },
   { label: "SV-PCB-2", kind: "pcb", kindRevision: "rev C", addsPf: [2.6, 2.7, 2.8] },
 ];
-
-function asCurrentUser(user: LogbookSeedContext["accounts"]["engineer"]): CurrentUser {
-  return { id: user.id, email: user.email, name: user.name, role: user.role };
-}
 
 /**
  * Loads the layout survey. Needs the demo accounts (engineer and technician) from the first seed step.

@@ -190,7 +190,8 @@ const plans: ProjectPlan[] = [
   },
 ];
 
-function asCurrentUser(user: User): CurrentUser {
+/** A seeded account as the services' acting user. */
+export function asCurrentUser(user: User): CurrentUser {
   return { id: user.id, email: user.email, name: user.name, role: user.role };
 }
 
