@@ -1,4 +1,4 @@
-import { fitSine4, type SineFit } from "./sine-fit";
+import { fitFrequencySigmaHz, fitSine4 } from "./sine-fit";
 
 /** The frequency's standard uncertainty and where it comes from. */
 export interface FrequencyUncertainty {
@@ -24,10 +24,6 @@ const MIN_PERIODS_PER_SEGMENT = 8;
 const MIN_SAMPLES_PER_SEGMENT = 64;
 /** χ² 99th percentiles for 3..7 degrees of freedom (any statistics table, e.g. NIST/SEMATECH e-Handbook §1.3.6.7.4). */
 const CHI_SQUARE_99: Record<number, number> = { 3: 11.345, 4: 13.277, 5: 15.086, 6: 16.812, 7: 18.475 };
-
-function sigmaHz(fit: SineFit, sampleRateHz: number): number {
-  return (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, (fit.residualSumOfSquares / (fit.length - 4)) * fit.omegaVarianceFactor));
-}
 
 /**
  * The whole record's frequency uncertainty under white additive noise and under the oscillator's
@@ -55,7 +51,7 @@ export function frequencyUncertainty(y: Float64Array, sampleRateHz: number, freq
   const fits = Array.from({ length: segments }, (_, k) =>
     fitSine4(y, sampleRateHz, frequencyHz, { start: k * length, length, maxIterations: 3 }),
   );
-  const sigmas = fits.map((f) => sigmaHz(f, sampleRateHz));
+  const sigmas = fits.map((f) => fitFrequencySigmaHz(f, sampleRateHz));
   if (sigmas.some((s) => !(s > 0))) return { ...notAssessed, segments, frequencyNoiseHz: 0 };
   let weightSum = 0;
   let weighted = 0;

@@ -353,3 +353,11 @@ export function fitSine4(
   // them moved ω by less than the tolerance (or the caller capped the iterations on purpose).
   return toFit(omega, sampleRateHz, abc, sums, iterations, converged, start, length);
 }
+
+/**
+ * 1σ of a four-parameter fit's frequency under white noise, from its own residual (n − 4 degrees of freedom) and
+ * the ω variance factor, in Hz.
+ */
+export function fitFrequencySigmaHz(fit: SineFit, sampleRateHz: number): number {
+  return (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, (fit.residualSumOfSquares / (fit.length - 4)) * fit.omegaVarianceFactor));
+}

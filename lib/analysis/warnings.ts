@@ -1,5 +1,5 @@
 import { fitHarmonics } from "./harmonic-fit";
-import { fitSine4 } from "./sine-fit";
+import { fitFrequencySigmaHz, fitSine4 } from "./sine-fit";
 import type { Spur } from "./spurs";
 
 /** Why a capture's figures may not be trusted. */
@@ -194,13 +194,11 @@ export interface DriftCheck {
  */
 export function checkDrift(y: Float64Array, sampleRateHz: number, frequencyHz: number): DriftCheck {
   const third = Math.floor(y.length / 3);
-  const sigmaOf = (fit: ReturnType<typeof fitSine4>) =>
-    (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, (fit.residualSumOfSquares / (fit.length - 4)) * fit.omegaVarianceFactor));
   // Starting from the whole record's frequency, two Gauss–Newton steps are plenty for a third of it.
   const first = fitSine4(y, sampleRateHz, frequencyHz, { start: 0, length: third, maxIterations: 2 });
   const last = fitSine4(y, sampleRateHz, frequencyHz, { start: y.length - third, length: third, maxIterations: 2 });
-  const firstSigmaHz = sigmaOf(first);
-  const lastSigmaHz = sigmaOf(last);
+  const firstSigmaHz = fitFrequencySigmaHz(first, sampleRateHz);
+  const lastSigmaHz = fitFrequencySigmaHz(last, sampleRateHz);
   const difference = Math.abs(last.frequencyHz - first.frequencyHz);
   const combined = Math.hypot(firstSigmaHz, lastSigmaHz);
   const sigmas = combined > 0 ? difference / combined : difference > 0 ? Infinity : 0;
