@@ -1,5 +1,6 @@
 import { fitHarmonics } from "./harmonic-fit";
 import { fitFrequencySigmaHz, fitSine4 } from "./sine-fit";
+import { formatEngineering } from "../oscillator/units";
 import type { Spur } from "./spurs";
 
 /** Why a capture's figures may not be trusted. */
@@ -255,12 +256,6 @@ export interface WarningInputs {
   frequencyHz?: number;
 }
 
-function hz(value: number): string {
-  const units: [number, string][] = [[1e9, "GHz"], [1e6, "MHz"], [1e3, "kHz"], [1, "Hz"]];
-  const [scale, unit] = units.find(([s]) => Math.abs(value) >= s) ?? [1, "Hz"];
-  return `${(value / scale).toPrecision(4)} ${unit}`;
-}
-
 /**
  * Turns the checks into the warnings a technician sees, in a fixed order.
  * @returns zero or more warnings, each with a code and a one-sentence message
@@ -280,14 +275,14 @@ export function buildWarnings(inputs: WarningInputs): AnalysisWarning[] {
   if (secondMode) {
     warnings.push({
       code: "second-mode",
-      message: `A second tone at ${hz(secondMode.frequencyHz)} is only ${(-(secondMode.dBc as number)).toFixed(1)} dB below the one taken as the fundamental${inputs.frequencyHz ? ` (${hz(inputs.frequencyHz)}, the stronger)` : ""}: the circuit oscillates in two modes, and which one wins can change from run to run.`,
+      message: `A second tone at ${formatEngineering(secondMode.frequencyHz, "Hz", 4)} is only ${(-(secondMode.dBc as number)).toFixed(1)} dB below the one taken as the fundamental${inputs.frequencyHz ? ` (${formatEngineering(inputs.frequencyHz, "Hz", 4)}, the stronger)` : ""}: the circuit oscillates in two modes, and which one wins can change from run to run.`,
     });
   }
   const subHarmonic = inputs.spurs?.find((s) => s.kind === "sub-harmonic" && s.dBc !== null && s.dBc > SUB_HARMONIC_ABOVE_DBC);
   if (subHarmonic) {
     warnings.push({
       code: "sub-harmonic",
-      message: `A sub-harmonic (${subHarmonic.label}) at ${hz(subHarmonic.frequencyHz)}, ${(subHarmonic.dBc as number).toFixed(1)} dBc: period doubling, often the onset of squegging (too much loop gain or a bias network that charges and discharges); the record is not one clean oscillation.`,
+      message: `A sub-harmonic (${subHarmonic.label}) at ${formatEngineering(subHarmonic.frequencyHz, "Hz", 4)}, ${(subHarmonic.dBc as number).toFixed(1)} dBc: period doubling, often the onset of squegging (too much loop gain or a bias network that charges and discharges); the record is not one clean oscillation.`,
     });
   }
   if (clipping.clippedTop || clipping.clippedBottom) {
