@@ -190,6 +190,21 @@ function kernelSums(x: number, length: number): { d: number; s: number; c: numbe
 }
 
 /**
+ * Σy and Σy² over the span. A function of its own so the accumulators are locals: summed inside
+ * makeNormalSums they would be variables its closure captures, and every iteration would box a double.
+ */
+function plainSums(y: Float64Array, start: number, length: number): { sumY: number; sumY2: number } {
+  let sumY = 0;
+  let sumY2 = 0;
+  for (let n = 0; n < length; n++) {
+    const v = y[start + n];
+    sumY += v;
+    sumY2 += v * v;
+  }
+  return { sumY, sumY2 };
+}
+
+/**
  * The normal equations of the four-parameter fit about (ω, a, b, c) from one pass over the data
  * and closed forms for everything else. With the index centred, sums of odd functions of m vanish,
  * so the Gram matrix needs only D, S and C at ω and 2ω; the data enter through four sums, computed
@@ -200,13 +215,7 @@ function makeNormalSums(
   start: number,
   length: number,
 ): (omega: number, a: number, b: number, c: number) => NormalSums {
-  let sumY = 0;
-  let sumY2 = 0;
-  for (let n = 0; n < length; n++) {
-    const v = y[start + n];
-    sumY += v;
-    sumY2 += v * v;
-  }
+  const { sumY, sumY2 } = plainSums(y, start, length);
   const m2 = (length * (length * length - 1)) / 12;
   let cachedOmega = NaN;
   let cached: Float64Array = new Float64Array(4);
