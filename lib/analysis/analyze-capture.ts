@@ -8,7 +8,7 @@ import { fitHarmonics, fitHarmonicsOfChannels } from "./harmonic-fit";
 import { reportHarmonics } from "./harmonic-report";
 import { amplitudeRatioToDb, enobFromSinadDb, sfdrDb, sinadDb, thdFToThdR } from "./metrics";
 import { type PlotData, peakToDbv, spectrumPlot, waveformEnvelope } from "./plot";
-import { fitSine4 } from "./sine-fit";
+import { fitSine4, type SineFit } from "./sine-fit";
 import { coarsePeakHz, type Spectrum, windowedSpectrum } from "./spectrum";
 import { findSpurs, largestOtherBin } from "./spurs";
 import { gainPhaseFromFits } from "./two-channel";
@@ -134,47 +134,32 @@ function analyzeRecord(
   // A milli-bin is close enough to take the harmonics out; the second fit does the fine work.
   let first = fitSine4(y, sampleRateHz, coarseHz, { toleranceBins: 1e-3 });
   const t3 = now();
+  const cleaned = new Float64Array(n);
+  let passes = passesFrom(y, sampleRateHz, first, maxOrder, compare, cleaned);
+  const t6 = now();
+  // The whole record's spectrum is asked for only now, after the fits, so a caller computing it on
+  // another thread has had all of them to do so.
   const spectrum = (options.spectrumOf ?? defaultSpectrum)(y, sampleRateHz, options.maxFftLength);
+  const t6b = now();
   // A safety net for records whose head is not representative (say, a transient that dies early):
   // if the whole record's spectrum peaks elsewhere and a fit from there explains more, start again there.
   const fullPeakHz = coarsePeakHz(spectrum);
   if (fullPeakHz !== undefined && Math.abs(fullPeakHz - first.frequencyHz) > 3 * (sampleRateHz / spectrum.segmentLength)) {
     const again = fitSine4(y, sampleRateHz, fullPeakHz, { toleranceBins: 1e-3 });
-    if (again.residualSumOfSquares < first.residualSumOfSquares) first = again;
+    if (again.residualSumOfSquares < first.residualSumOfSquares) {
+      first = again;
+      passes = passesFrom(y, sampleRateHz, first, maxOrder, compare, cleaned);
+    }
   }
-  const t3b = now();
-  const cleaned = new Float64Array(n);
-  fitHarmonics(y, first.omegaRadPerSample, maxOrder, { cleanedOut: cleaned });
-  const t4 = now();
-  // Second pass: harmonics leak into a single-sine fit and bias it; fitting the cleaned record removes that.
-  const fit = fitSine4(cleaned, sampleRateHz, first.frequencyHz);
-  const t5 = now();
-  // The compared channel shares the pass: same frequency, same columns.
-  const [harmonicFit, compareFit] = fitHarmonicsOfChannels(compare ? [y, compare.samples] : [y], fit.omegaRadPerSample, maxOrder);
-  const t6 = now();
-
+  const t6c = now();
+  const { fit, harmonicFit, compareFit, harmonics, thd, uncertainty, noiseVrms, sinad, snr, tone } = passes;
+  const { cycles, samplesPerCycle, clipping, envelope, drift } = passes;
   const fundamentalVpk = harmonicFit.amplitudesVpk[0];
   const frequencyHz = fit.frequencyHz;
-  const dof = Math.max(1, n - harmonicFit.parameters - 1);
-  const noiseVariance = harmonicFit.noiseSumOfSquares / dof;
-  const { harmonics, thd } = reportHarmonics(harmonicFit, maxOrder, sampleRateHz, noiseVariance);
-  const whiteNoiseHz = (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, noiseVariance * fit.omegaVarianceFactor));
-  const uncertainty = frequencyUncertainty(cleaned, sampleRateHz, frequencyHz, whiteNoiseHz);
-  const signalRms = fundamentalVpk / Math.SQRT2;
-  const noiseVrms = Math.sqrt(harmonicFit.noiseSumOfSquares / n);
-  const nadRms = Math.sqrt(harmonicFit.noiseAndDistortionSumOfSquares / n);
-  const sinad = sinadDb(signalRms, nadRms);
-  const snr = sinadDb(signalRms, noiseVrms);
-  const tone = checkTone(fundamentalVpk, n, harmonicFit.noiseAndDistortionSumOfSquares / Math.max(1, n - 3));
 
   const spurs = findSpurs(spectrum, frequencyHz, fundamentalVpk, harmonics.map((h) => h.seenAtHz), maxOrder);
   const largestSpur = largestComponent(harmonics, spurs, spectrum, frequencyHz, fundamentalVpk);
 
-  const cycles = (frequencyHz * n) / sampleRateHz;
-  const samplesPerCycle = sampleRateHz / frequencyHz;
-  const clipping = checkClipping(y, samplesPerCycle);
-  const envelope = checkEnvelope(cleaned, sampleRateHz, frequencyHz, noiseVrms);
-  const drift = cycles >= 6 ? checkDrift(cleaned, sampleRateHz, frequencyHz) : undefined;
   const warnings = buildWarnings({ cycles, samplesPerCycle, clipping, envelope, drift, maxV: max, minV: min, tone, spurs, frequencyHz });
   const t7 = now();
 
@@ -261,15 +246,60 @@ function analyzeRecord(
   if (options.collectTimings) {
     analysis.timings = {
       statsMs: t1 - t0,
-      fftMs: t2 - t1 + (t3b - t3),
-      fitMs: t3 - t2 + (t5 - t4),
-      harmonicsMs: t4 - t3b + (t6 - t5),
-      checksMs: t7 - t6,
+      // The wait for the whole record's spectrum (all of it when computed here), and the coarse head's.
+      fftMs: t2 - t1 + (t6b - t6),
+      fitMs: t3 - t2 + (t6c - t6b),
+      // The passes after the first fit: harmonics, the second fit, the projections and their checks.
+      harmonicsMs: t6 - t3,
+      checksMs: t7 - t6c,
       twoChannelMs: t8 - t7,
       plotMs: t9 - t8,
     };
   }
   return analysis;
+}
+
+/**
+ * Everything that follows from the first fit and needs no spectrum: the harmonics taken out of the
+ * record (written to `cleaned`), the second fit on what is left, the harmonic fit of both channels
+ * at its frequency, and the figures and checks from those. A function so the rare restart of the
+ * spectrum's safety net can run it again.
+ */
+function passesFrom(
+  y: Float64Array,
+  sampleRateHz: number,
+  first: SineFit,
+  maxOrder: number,
+  compare: CaptureChannel | undefined,
+  cleaned: Float64Array,
+) {
+  const n = y.length;
+  fitHarmonics(y, first.omegaRadPerSample, maxOrder, { cleanedOut: cleaned });
+  // Second pass: harmonics leak into a single-sine fit and bias it; fitting the cleaned record removes that.
+  const fit = fitSine4(cleaned, sampleRateHz, first.frequencyHz);
+  // The compared channel shares the pass: same frequency, same columns.
+  const [harmonicFit, compareFit] = fitHarmonicsOfChannels(compare ? [y, compare.samples] : [y], fit.omegaRadPerSample, maxOrder);
+
+  const fundamentalVpk = harmonicFit.amplitudesVpk[0];
+  const frequencyHz = fit.frequencyHz;
+  const dof = Math.max(1, n - harmonicFit.parameters - 1);
+  const noiseVariance = harmonicFit.noiseSumOfSquares / dof;
+  const { harmonics, thd } = reportHarmonics(harmonicFit, maxOrder, sampleRateHz, noiseVariance);
+  const whiteNoiseHz = (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, noiseVariance * fit.omegaVarianceFactor));
+  const uncertainty = frequencyUncertainty(cleaned, sampleRateHz, frequencyHz, whiteNoiseHz);
+  const signalRms = fundamentalVpk / Math.SQRT2;
+  const noiseVrms = Math.sqrt(harmonicFit.noiseSumOfSquares / n);
+  const nadRms = Math.sqrt(harmonicFit.noiseAndDistortionSumOfSquares / n);
+  const sinad = sinadDb(signalRms, nadRms);
+  const snr = sinadDb(signalRms, noiseVrms);
+  const tone = checkTone(fundamentalVpk, n, harmonicFit.noiseAndDistortionSumOfSquares / Math.max(1, n - 3));
+
+  const cycles = (frequencyHz * n) / sampleRateHz;
+  const samplesPerCycle = sampleRateHz / frequencyHz;
+  const clipping = checkClipping(y, samplesPerCycle);
+  const envelope = checkEnvelope(cleaned, sampleRateHz, frequencyHz, noiseVrms);
+  const drift = cycles >= 6 ? checkDrift(cleaned, sampleRateHz, frequencyHz) : undefined;
+  return { fit, harmonicFit, compareFit, harmonics, thd, uncertainty, noiseVrms, sinad, snr, tone, cycles, samplesPerCycle, clipping, envelope, drift };
 }
 
 /**
