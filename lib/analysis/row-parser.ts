@@ -44,19 +44,22 @@ export class RowParser {
   count = 0;
   /** 1-based number of the last line consumed. */
   lineNumber: number;
-  firstTime = 0;
-  lastTime = 0;
+  // The double-valued fields start at -0 (which sums and comparisons treat as 0) rather than 0: a
+  // field first set to a small integer is laid out as one, and the first double stored into it
+  // changes the object's shape under the optimised parser, which then falls back to the interpreter.
+  firstTime = -0;
+  lastTime = -0;
   /**
    * Sums for the least-squares line t = t₀ + i·Δt through every stamp (i the row index, t taken from
    * the first stamp): Σi, Σt, Σi², Σi·t. Rounded stamps scatter about the line, which averages the
    * rounding out where the end points alone would keep it.
    */
-  private sumI = 0;
-  private sumT = 0;
-  private sumII = 0;
-  private sumIT = 0;
+  private sumI = -0;
+  private sumT = -0;
+  private sumII = -0;
+  private sumIT = -0;
   /** Printed precision of the last stamp: one unit of its last digit, in the column's own unit. */
-  private lastQuantum = 0;
+  private lastQuantum = -0;
   private readonly roles: Int32Array;
   private readonly scales: Float64Array;
   private readonly columnHeaders: string[];
@@ -191,7 +194,9 @@ export class RowParser {
           } else if (c === PLUS) {
             c = bytes[++pos];
           }
-          let mantissa = 0;
+          // -0, not 0: arithmetic seeded with a small integer is compiled as integer arithmetic, and
+          // the first mantissa past 2^30 (a 10-digit time stamp) would throw the optimised code away.
+          let mantissa = -0;
           let scale10 = 0;
           // A stamp printed without a decimal point or exponent is taken as exact (a writer printing its full value).
           let printedFraction = false;
@@ -355,10 +360,13 @@ export class RowParser {
             }
           }
           const t = time - this.firstTime;
-          sumI += count;
+          // The row index as a double (adding -0 changes no value): as integers, count² would
+          // overflow 2^31 past row 46,340 and throw the optimised code away.
+          const i = count + -0;
+          sumI += i;
           sumT += t;
-          sumII += count * count;
-          sumIT += count * t;
+          sumII += i * i;
+          sumIT += i * t;
         }
         previousTime = time;
         previousQuantum = timeQuantum;
