@@ -12,6 +12,7 @@ import { registerProjectPaths } from "./paths/projects";
 import { registerReviewPaths } from "./paths/reviews";
 import { registerRunExcerptPaths } from "./paths/run-excerpt";
 import { registerRunPaths } from "./paths/runs";
+import { registerSensitivityPaths } from "./paths/sensitivity";
 import { registerTweakApplyPaths } from "./paths/tweak-apply";
 import { registerUploadPaths } from "./paths/uploads";
 
@@ -45,6 +46,7 @@ export function buildOpenApiDocument(): { document: OpenApiDocument; stale: stri
   registerProjectPaths(registry);
   registerDesignPaths(registry);
   registerBuildPaths(registry);
+  registerSensitivityPaths(registry);
   registerTweakApplyPaths(registry);
   registerRunPaths(registry);
   registerRunExcerptPaths(registry);
