@@ -18,6 +18,7 @@ import {
   type TimelineSeries,
 } from "@/lib/drift-trend";
 import { getRetuneSuggestion, getSignOff, type BuildRetune } from "@/lib/logbook/review";
+import { computeBuildSensitivity, type BuildSensitivity } from "@/lib/logbook/sensitivity";
 import { analyseDrift, type DriftAnalysis } from "@/lib/oscillator/drift";
 import type { OscillatorDesign, Topology } from "@/lib/oscillator/design";
 import type { ESeriesName } from "@/lib/oscillator/e-series";
@@ -61,6 +62,8 @@ export interface BuildReviewData {
   /** The latest analysed run, whose verdict is the build's state; older runs' flags are its history. */
   latestAnalysedRun: { id: string; originalFilename: string; createdAt: Date | string } | null;
   tweaks: Tweak[];
+  /** Pushing, temperature coefficient and run-to-run stability across the build's runs (the Sensitivity card). */
+  sensitivity: BuildSensitivity;
 }
 
 function designOfSnapshot(run: { snapshot: RunSnapshot }): OscillatorDesign {
@@ -86,7 +89,7 @@ export async function loadBuildReview(
   topology: Topology,
   options: { series?: ESeriesName } = {},
 ): Promise<BuildReviewData> {
-  const [page, tweaks, flags, follow, followsProject, signOff, row] = await Promise.all([
+  const [page, tweaks, flags, follow, followsProject, signOff, row, sensitivity] = await Promise.all([
     listRunsWithSnapshot(build.id, { status: "done", limit: TIMELINE_RUN_LIMIT }),
     listTweaks(build.id),
     listBuildFlags(build.id),
@@ -94,6 +97,7 @@ export async function loadBuildReview(
     isFollowingProject(user.id, build.projectId),
     getSignOff(build.id),
     getBuildTableRow(build.id),
+    computeBuildSensitivity(build.id, build.timebasePpm),
   ]);
   const runs = page.items;
 
@@ -169,5 +173,6 @@ export async function loadBuildReview(
     latestFlaggedRules,
     latestAnalysedRun: latest ? { id: latest.id, originalFilename: latest.originalFilename, createdAt: latest.createdAt } : null,
     tweaks,
+    sensitivity,
   };
 }

@@ -33,6 +33,7 @@ import { buildCalibration } from "@/lib/logbook/layouts";
 import { BrokenRulesNotice, groupFlagsByRule } from "@/components/review/broken-rules-notice";
 import { applyPlannedTweakAction, setTimebaseAction } from "./actions";
 import { TimebaseForm } from "@/components/logbook/timebase-form";
+import { SensitivityCard } from "@/components/logbook/sensitivity/sensitivity-card";
 import { BuildActions } from "./build-actions";
 import { loadBuild } from "./load-build";
 
@@ -242,6 +243,9 @@ export default async function BuildPage({ params, searchParams }: Props) {
           )}
           <div className="pt-2">
             <ImpliedCapacitanceCard data={review} />
+          </div>
+          <div className="pt-2">
+            <SensitivityCard report={review.sensitivity} canUpload={canUpload} />
           </div>
         </div>
 
