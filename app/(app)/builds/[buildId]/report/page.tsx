@@ -17,6 +17,7 @@ import { FlagsList } from "@/components/review/flags-list";
 import { ImpliedCapacitancePanel } from "@/components/review/implied-capacitance-panel";
 import { PrintButton } from "@/components/review/print-button";
 import { ReportRunsTable } from "@/components/review/report-runs-table";
+import { SensitivityReportSection } from "@/components/logbook/sensitivity/sensitivity-report-section";
 import { getBuild } from "@/db/queries/builds";
 import { getDesign, getDesignRevision } from "@/db/queries/designs";
 import { listRuns } from "@/db/queries/runs";
@@ -155,11 +156,15 @@ export default async function BuildReportPage({ params }: Props) {
         <ImpliedCapacitancePanel rows={data.implied} trend={data.trend} latestExplanation={data.latestExplanation} latestSignPhrase={data.latestSignPhrase} />
       </Section>
 
-      <Section n={6} title="Runs" description={runsPage.nextCursor ? "The newest 200 runs; the CSV export has them all." : undefined}>
+      <Section n={6} title="Sensitivity" description="Pushing and temperature coefficient of the build as it stands, and how well repeated runs agree.">
+        <SensitivityReportSection report={data.sensitivity} />
+      </Section>
+
+      <Section n={7} title="Runs" description={runsPage.nextCursor ? "The newest 200 runs; the CSV export has them all." : undefined}>
         {runs.length > 0 ? <ReportRunsTable runs={runs} tweakText={tweakText} chartIndex={chartIndex} /> : <p className="text-sm text-ink-soft">No captures uploaded.</p>}
       </Section>
 
-      <Section n={7} title="Tweaks">
+      <Section n={8} title="Tweaks">
         {data.tweaks.length > 0 ? (
           <ol className="space-y-1 text-sm">
             {data.tweaks.map((t) => (
@@ -176,11 +181,11 @@ export default async function BuildReportPage({ params }: Props) {
         )}
       </Section>
 
-      <Section n={8} title="Flags">
+      <Section n={9} title="Flags">
         <FlagsList flags={data.flags} runNames={runNames} compact />
       </Section>
 
-      <Section n={9} title="Sign-off">
+      <Section n={10} title="Sign-off">
         <SignOffStatus build={build} reason={data.signOff?.reason ?? null} />
       </Section>
     </article>
