@@ -79,7 +79,7 @@ export function BuildTimeline({
           const thd = formatThd(r.thdPercent === null ? null : r.thdPercent / 100);
           const follows = r.tweakId ? tweaksById.get(r.tweakId) : undefined;
           return (
-            <Tr key={`r-${r.id}`}>
+            <Tr key={`r-${r.id}`} className={r.withdrawnAt ? "opacity-70" : undefined}>
               <Td className="num whitespace-nowrap font-mono text-[13px]">
                 <Link href={`/runs/${r.id}`} className="text-ink underline-offset-2 hover:text-copper hover:underline">
                   {formatDateTime(r.createdAt)}
@@ -93,6 +93,12 @@ export function BuildTimeline({
                   {follows ? `after ${tweakLabel(follows, topology)}` : "as built"}
                   {r.duplicateOfRunId ? " · kept duplicate" : ""}
                 </span>
+                {r.withdrawnAt ? (
+                  <span className="mt-0.5 block text-xs text-ink-soft" data-withdrawn="true">
+                    <span aria-hidden="true">⊘ </span>
+                    <span className="font-medium">Withdrawn</span>: {r.withdrawalReason} · left out of the charts, the verdict and the lab&apos;s figures
+                  </span>
+                ) : null}
               </Td>
               <Td numeric className="whitespace-nowrap">
                 {f.value}

@@ -99,7 +99,8 @@ export async function loadBuildReview(
     getBuildTableRow(build.id),
     computeBuildSensitivity(build.id, build.timebasePpm),
   ]);
-  const runs = page.items;
+  // Withdrawn runs stay in the build's run list (marked) but leave the charts, the trend and the build's verdict.
+  const runs = page.items.filter((r) => r.withdrawnAt === null);
 
   let retune: BuildRetune | null = null;
   let retuneError: string | null = null;

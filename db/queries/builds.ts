@@ -137,7 +137,7 @@ export async function listBuilds(designId: string, filter: BuildFilter = {}, trx
       trx.raw("(select count(*)::int from runs r where r.build_id = b.id) as run_count"),
       trx.raw(`(select jsonb_build_object('id', r.id, 'createdAt', r.created_at, 'status', r.status, 'measuredHz', r.measured_hz,
                  'driftPpm', r.drift_ppm, 'thdPercent', r.thd_percent, 'verdict', r.verdict)
-               from runs r where r.build_id = b.id order by r.created_at desc, r.id desc limit 1) as latest_run`),
+               from runs r where r.build_id = b.id and r.withdrawn_at is null order by r.created_at desc, r.id desc limit 1) as latest_run`),
     )
     .where("b.design_id", designId);
   if (filter.q) query.whereILike("b.label", likePattern(filter.q));

@@ -8,7 +8,8 @@ import { likePattern } from "./pagination";
 // analysed run. The state is computed in SQL so the lists can filter, sort and page on it on the server.
 
 /**
- * A build's state. accepted / rejected come from the sign-off; otherwise it is read from the latest analysed run:
+ * A build's state. accepted / rejected come from the sign-off; otherwise it is read from the latest analysed run
+ * that is not withdrawn:
  * flagged (verdict fail), cannot-judge (inconclusive: no rule failed but one could not be decided on the capture),
  * in-spec (pass), unchecked (runs exist but none analysed with a verdict yet — queued, failed, or a design without
  * limits), no-runs.
@@ -116,7 +117,7 @@ function buildTableBase(trx: Knex | Knex.Transaction) {
                 r.worst_harmonic_dbc, r.verdict,
                 (r.snapshot->'worstCase'->>'minHz')::float8 as band_min_hz,
                 (r.snapshot->'worstCase'->>'maxHz')::float8 as band_max_hz
-         from runs r where r.build_id = b.id and r.status = 'done'
+         from runs r where r.build_id = b.id and r.status = 'done' and r.withdrawn_at is null
          order by r.created_at desc, r.id desc limit 1) lr on true`,
     )
     .select(

@@ -61,6 +61,10 @@ export interface RunSummary {
   createdByName: string;
   createdAt: Date;
   finishedAt: Date | null;
+  /** When the run was withdrawn from the figures (never deleted); null while it counts. */
+  withdrawnAt: Date | null;
+  withdrawnBy: string | null;
+  withdrawalReason: string | null;
 }
 
 export interface Run extends RunSummary {
@@ -122,6 +126,9 @@ interface RunRow {
   updated_at: Date;
   started_at: Date | null;
   finished_at: Date | null;
+  withdrawn_at: Date | null;
+  withdrawn_by: string | null;
+  withdrawal_reason: string | null;
 }
 
 const summaryColumns = [
@@ -146,6 +153,9 @@ const summaryColumns = [
   "r.created_by",
   "r.created_at",
   "r.finished_at",
+  "r.withdrawn_at",
+  "r.withdrawn_by",
+  "r.withdrawal_reason",
 ];
 
 function toSummary(row: RunRow): RunSummary {
@@ -172,6 +182,9 @@ function toSummary(row: RunRow): RunSummary {
     createdByName: row.created_by_name,
     createdAt: row.created_at,
     finishedAt: row.finished_at,
+    withdrawnAt: row.withdrawn_at,
+    withdrawnBy: row.withdrawn_by,
+    withdrawalReason: row.withdrawal_reason,
   };
 }
 

@@ -10,6 +10,7 @@ export const actions = [
   "tweak:create",
   "run:upload",
   "run:reanalyse",
+  "run:withdraw", // withdraw a run from the figures, or restore it
   "project:write",
   "design:write",
   "build:review", // accept or reject a build
@@ -25,6 +26,8 @@ const minimumRole: Record<Action, Role> = {
   "tweak:create": "technician",
   "run:upload": "technician",
   "run:reanalyse": "technician",
+  // Whoever may edit the build (its timebase, tweaks, captures) may take one of its runs out of the figures.
+  "run:withdraw": "technician",
   "project:write": "engineer",
   "design:write": "engineer",
   "build:review": "engineer",

@@ -9,6 +9,7 @@ const actionPhrase: Record<Action, string> = {
   "tweak:create": "Logging tweaks",
   "run:upload": "Uploading captures",
   "run:reanalyse": "Re-analysing captures",
+  "run:withdraw": "Withdrawing or restoring runs",
   "project:write": "Creating and editing projects",
   "design:write": "Creating and editing designs and specs",
   "build:review": "Accepting or rejecting builds",

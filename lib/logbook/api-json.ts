@@ -133,6 +133,7 @@ export function runSummaryJson(r: RunSummary) {
     verdict: r.verdict,
     error: r.error,
     duplicateOfRunId: r.duplicateOfRunId,
+    withdrawal: r.withdrawnAt ? { withdrawnAt: r.withdrawnAt, withdrawnBy: r.withdrawnBy, reason: r.withdrawalReason } : null,
   };
 }
 

@@ -26,6 +26,7 @@ export const REQUEST_EXAMPLES = {
   reviewBuild: { decision: "accept", comment: "Within 0.3 % of target, THD 1.8 %." },
   planRetune: { series: "E24" },
   setBuildTimebase: { timebasePpm: 25 },
+  withdrawRun: { reason: "Probe was on ×1, not ×10: the amplitude and THD are wrong." },
 } as const;
 
 export type ExampleOperation = keyof typeof REQUEST_EXAMPLES;

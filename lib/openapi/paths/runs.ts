@@ -1,7 +1,9 @@
 import type { OpenAPIRegistry } from "@asteasolutions/zod-to-openapi";
 import { z } from "zod";
-import { jsonResponse, locationHeader, pathId, registerOperation } from "../operation";
-import { runAcceptedSchema, runPlotSchema, runSchema } from "../schemas/run";
+import { runWithdrawalInputSchema } from "@/lib/validations/run-withdrawal";
+import { REQUEST_EXAMPLES } from "../examples";
+import { jsonBody, jsonResponse, locationHeader, pathId, registerOperation } from "../operation";
+import { runAcceptedSchema, runPlotSchema, runSchema, runWithdrawalSchema } from "../schemas/run";
 
 const runParams = z.object({ runId: pathId("run") });
 
@@ -31,6 +33,34 @@ export function registerRunPaths(registry: OpenAPIRegistry): void {
     params: runParams,
     responses: { 202: jsonResponse(runAcceptedSchema, "Queued again.", locationHeader("the run")) },
     problems: { 409: "The run is queued or being analysed already." },
+  });
+  registerOperation(registry, {
+    method: "post",
+    path: "/api/v1/runs/{runId}/withdrawal",
+    operationId: "withdrawRun",
+    tag: "Runs",
+    summary: "Withdraw a run from the figures",
+    description:
+      "Marks the run withdrawn with a reason (a wrong probe setting, the wrong board on the bench). Nothing is deleted: " +
+      "the run stays in its build's lists, marked withdrawn, but the lab's layout figures, the build's drift trend and " +
+      "verdict and the comparison's default run leave it out. Audited; DELETE restores it.",
+    action: "run:withdraw",
+    params: runParams,
+    body: jsonBody(runWithdrawalInputSchema, "RunWithdrawalInput", { example: REQUEST_EXAMPLES.withdrawRun }),
+    responses: { 200: jsonResponse(runWithdrawalSchema, "The run is withdrawn.") },
+    problems: { 409: "The run is withdrawn already." },
+  });
+  registerOperation(registry, {
+    method: "delete",
+    path: "/api/v1/runs/{runId}/withdrawal",
+    operationId: "restoreRun",
+    tag: "Runs",
+    summary: "Restore a withdrawn run",
+    description: "Puts a withdrawn run back into the figures. Audited, with the withdrawal it undoes.",
+    action: "run:withdraw",
+    params: runParams,
+    responses: { 204: { description: "The run counts again." } },
+    problems: { 409: "The run is not withdrawn." },
   });
   registerOperation(registry, {
     method: "get",

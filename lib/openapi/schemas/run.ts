@@ -30,10 +30,20 @@ const runSummaryShape = {
   verdict: verdictSchema,
   error: z.string().nullable().describe("Why the analysis failed, when status is failed."),
   duplicateOfRunId: rowId.nullable().describe("Set when this run keeps a second copy of a file already logged."),
+  withdrawal: z
+    .object({ withdrawnAt: isoTime, withdrawnBy: userId, reason: z.string() })
+    .nullable()
+    .describe("Set while the run is withdrawn: it stays in the logbook but leaves the lab's figures, the build's trend and verdict and the comparison's default run."),
 };
 
 export const runSummarySchema = documented(z.object(runSummaryShape), { refId: "RunSummary" });
 export const runPageSchema = pageOf(runSummarySchema, "RunPage");
+
+/** POST /runs/{id}/withdrawal. */
+export const runWithdrawalSchema = documented(
+  z.object({ runId: rowId, buildId: rowId, withdrawnAt: isoTime, withdrawnBy: userId, withdrawnByName: z.string(), reason: z.string() }),
+  { refId: "RunWithdrawal", description: "A withdrawn run: who withdrew it, when and why." },
+);
 
 export const runAcceptedSchema = documented(z.object({ id: rowId, status: runStatusSchema }), {
   refId: "RunAccepted",

@@ -6,6 +6,7 @@ import { describe, expect, it } from "vitest";
 import { z } from "zod";
 import { buildOpenApiDocument, ROLE_EXTENSION } from "@/lib/openapi";
 import { REQUEST_EXAMPLES, type ExampleOperation } from "@/lib/openapi/examples";
+import { runWithdrawalInputSchema } from "@/lib/validations/run-withdrawal";
 import { timebaseInputSchema } from "@/lib/validations/timebase";
 import { signInSchema } from "@/lib/validations/auth";
 import { buildInputSchema } from "@/lib/validations/build";
@@ -61,6 +62,7 @@ const EXAMPLE_SCHEMAS: Record<ExampleOperation, z.ZodType> = {
   reviewBuild: buildReviewInputSchema,
   planRetune: retunePlanSchema.pick({ series: true }),
   setBuildTimebase: timebaseInputSchema,
+  withdrawRun: runWithdrawalInputSchema,
 };
 
 /** Request components and the lib/validations schema each one is generated from. */
@@ -77,6 +79,7 @@ const REQUEST_COMPONENTS: Record<string, z.ZodType> = {
   BuildReviewInput: buildReviewInputSchema,
   RunUpload: runMetadataSchema,
   TimebaseInput: timebaseInputSchema,
+  RunWithdrawalInput: runWithdrawalInputSchema,
 };
 
 describe("buildOpenApiDocument", () => {

@@ -117,7 +117,7 @@ export async function logAnalysedRun(
   fx: LayoutBuildFixture,
   by: CurrentUser,
   impliedF: number,
-  options: { warnings?: string[]; thdPercent?: number } = {},
+  options: { warnings?: string[]; thdPercent?: number; verdict?: "pass" | "fail" } = {},
 ): Promise<string> {
   const id = randomUUID();
   await createRun({
@@ -159,7 +159,7 @@ export async function logAnalysedRun(
         worstHarmonicDbc: -45,
         inRecordDriftPpm: null,
         specChecks: [],
-        verdict: null,
+        verdict: options.verdict ?? null,
       },
       trx,
     );

@@ -9,6 +9,7 @@ const table: Record<Action, Record<Role, boolean>> = {
   "tweak:create": { viewer: false, technician: true, engineer: true, admin: true },
   "run:upload": { viewer: false, technician: true, engineer: true, admin: true },
   "run:reanalyse": { viewer: false, technician: true, engineer: true, admin: true },
+  "run:withdraw": { viewer: false, technician: true, engineer: true, admin: true },
   "project:write": { viewer: false, technician: false, engineer: true, admin: true },
   "design:write": { viewer: false, technician: false, engineer: true, admin: true },
   "build:review": { viewer: false, technician: false, engineer: true, admin: true },
