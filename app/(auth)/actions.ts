@@ -10,7 +10,7 @@ import { requestPasswordReset, resetPassword } from "@/lib/auth/password-reset";
 import { requestMeta } from "@/lib/auth/request-meta";
 import { signIn, signOut, signOutEverywhere } from "@/lib/auth/sign-in";
 import { formFields, invalidState, keepValues, stateFromError, type FormState } from "@/lib/auth/action-state";
-import { acceptInvitationSchema, forgotPasswordSchema, resetPasswordSchema, signInSchema } from "@/lib/validations/auth";
+import { acceptInvitationSchema, forgotPasswordSchema, resetPasswordSchema, signInSchema, signOutEverywhereSchema } from "@/lib/validations/auth";
 
 export async function signInAction(_prev: FormState, formData: FormData): Promise<FormState> {
   const fields = formFields(formData);
@@ -79,10 +79,13 @@ export async function signOutAction(): Promise<void> {
   redirect("/sign-in?signed-out=1");
 }
 
-/** Ends every session of the signed-in user, on every device. */
-export async function signOutEverywhereAction(): Promise<void> {
+/** Ends every session of the signed-in user, on every device, and revokes their API tokens when the box is ticked. */
+export async function signOutEverywhereAction(formData: FormData): Promise<void> {
   const { user } = await getCurrentSession();
-  if (user) await signOutEverywhere(user.id, await requestMeta());
+  // Anything but the checkbox's "on" reads as unticked: the sessions still end, which is what the button promises.
+  const parsed = signOutEverywhereSchema.safeParse(formFields(formData));
+  const revokeTokens = parsed.success && parsed.data.revokeTokens;
+  if (user) await signOutEverywhere(user.id, { revokeTokens }, await requestMeta());
   await clearSessionCookie();
-  redirect("/sign-in?signed-out=everywhere");
+  redirect(`/sign-in?signed-out=${user && revokeTokens ? "everywhere-tokens" : "everywhere"}`);
 }

@@ -67,12 +67,22 @@ export async function signOut(sessionId: string, userId: string, meta: RequestMe
 }
 
 /**
- * Ends every session of the user, on every device, and revokes every API token, and logs it: "everywhere"
- * includes bench scripts, or a token made by someone who got in would outlive the owner's clean-up
- * (OWASP Session Management Cheat Sheet, "logout" terminates all credentials the user asks to end).
+ * Ends every session of the user, on every device, and logs it. With `revokeTokens` it also revokes every API
+ * token: "everywhere" then includes bench scripts, so a token made by someone who got in does not outlive the
+ * owner's clean-up (OWASP Session Management Cheat Sheet: logout ends the credentials the user asks to end).
+ * Without it the tokens stay, for an owner who only wants the browsers signed out and the bench running.
+ * The audit event records the choice and the count either way. A password reset revokes every token regardless.
  */
-export async function signOutEverywhere(userId: string, meta: RequestMeta): Promise<void> {
+export async function signOutEverywhere(userId: string, options: { revokeTokens: boolean }, meta: RequestMeta): Promise<{ tokensRevoked: number }> {
   await lucia().invalidateUserSessions(userId);
-  const tokensRevoked = await revokeAllApiTokenRows(userId);
-  await recordAudit({ actorId: userId, action: "sign-out.everywhere", entityType: "user", entityId: userId, ip: meta.ip, detail: { tokensRevoked } });
+  const tokensRevoked = options.revokeTokens ? await revokeAllApiTokenRows(userId) : 0;
+  await recordAudit({
+    actorId: userId,
+    action: "sign-out.everywhere",
+    entityType: "user",
+    entityId: userId,
+    ip: meta.ip,
+    detail: { revokeTokens: options.revokeTokens, tokensRevoked },
+  });
+  return { tokensRevoked };
 }

@@ -41,6 +41,14 @@ export type SignInInput = z.infer<typeof signInSchema>;
 
 export const forgotPasswordSchema = z.object({ email: emailSchema });
 
+/**
+ * The profile's "Sign out everywhere" form. A ticked checkbox is sent as "on" and an unticked one is not sent at
+ * all (HTML's form submission), so an absent field means "keep the API tokens".
+ */
+export const signOutEverywhereSchema = z
+  .object({ revokeTokens: z.literal("on", { error: "revokeTokens is a checkbox: send \"on\" or leave it out." }).optional() })
+  .transform((v) => ({ revokeTokens: v.revokeTokens === "on" }));
+
 function confirmed<T extends { password: string; confirm: string }>(v: T, ctx: z.RefinementCtx) {
   if (v.password !== v.confirm) ctx.addIssue({ code: "custom", path: ["confirm"], message: "The two passwords differ." });
 }

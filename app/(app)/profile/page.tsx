@@ -50,7 +50,16 @@ export default async function ProfilePage() {
                 </li>
               ))}
             </ul>
-            <form action={signOutEverywhereAction}>
+            <form action={signOutEverywhereAction} className="space-y-3">
+              {/* Ticked by default: this button is for "someone else may be in", and a token that person made is the
+                  credential an owner forgets. Unticking keeps bench scripts running when only browsers should go. */}
+              <label className="flex items-start gap-2 text-sm text-ink">
+                <input type="checkbox" name="revokeTokens" value="on" defaultChecked className="mt-0.5 h-4 w-4 accent-copper" />
+                <span>
+                  Also revoke my API tokens
+                  <span className="block text-xs text-ink-soft">Bench scripts using them stop working until you make new ones. Untick to keep them.</span>
+                </span>
+              </label>
               <button type="submit" className="rounded-md border border-verdict-fail bg-paper-raised px-3 py-1.5 text-sm font-medium text-verdict-fail hover:bg-verdict-failBg">
                 Sign out everywhere
               </button>

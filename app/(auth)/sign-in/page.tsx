@@ -10,7 +10,8 @@ export const metadata: Metadata = { title: "Sign in" };
 
 const notices: Record<string, string> = {
   "1": "You are signed out.",
-  everywhere: "You are signed out on every device.",
+  everywhere: "You are signed out on every device. Your API tokens still work.",
+  "everywhere-tokens": "You are signed out on every device, and your API tokens are revoked.",
 };
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
