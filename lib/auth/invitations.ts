@@ -30,14 +30,37 @@ function expiry(): Date {
   return new Date(Date.now() + INVITATION_LIFETIME_SECONDS * 1000);
 }
 
+/** The e-mail of an invitation, to send once the answer is out (see inviteUser). Never throws. */
+export type InvitationDelivery = () => Promise<void>;
+
+function deliveryOf(mail: Parameters<typeof sendInvitationEmail>[0], audit: { actorId: string; invitationId: string; ip: string | null }): InvitationDelivery {
+  return async () => {
+    try {
+      await sendInvitationEmail(mail);
+    } catch (err) {
+      // Nobody is waiting for this answer any more: the failure goes to the log and the audit log, and the open
+      // invitation on the People page can be resent.
+      const error = err instanceof Error ? err.message : String(err);
+      console.error(`invitation e-mail to ${mail.to} not sent: ${error}`);
+      await recordAudit({ actorId: audit.actorId, action: "invitation.mail-failed", entityType: "invitation", entityId: audit.invitationId, detail: { email: mail.to, error: error.slice(0, 300) }, ip: audit.ip }).catch(() => {});
+    }
+  };
+}
+
 /**
- * Invites an address with a role and e-mails the single-use link. The caller must have checked people:manage.
- * @throws ConflictError when the address already has an account or an open invitation; MailError when sending fails
+ * Invites an address with a role. The caller must have checked people:manage, and runs the returned delivery
+ * after its answer is sent (Next's after()), as forgot-password does: sending takes an SMTP round trip
+ * (≈ 100 ms or more) that the refusal of an address with an account does not, so waiting for it would let the
+ * answer's time alone say whether an address has an account, to anyone who can time the form without reading
+ * its answer. The answer's words still say so: only admins invite, and they see every account anyway.
+ * @throws ConflictError when the address already has an account or an open invitation
  */
-export async function inviteUser(input: { email: string; role: Role; inviter: CurrentUser }, meta: RequestMeta): Promise<Invitation> {
+export async function inviteUser(input: { email: string; role: Role; inviter: CurrentUser }, meta: RequestMeta): Promise<{ invitation: Invitation; deliver: InvitationDelivery }> {
   const email = input.email.trim().toLowerCase();
-  if (await getUserByEmail(email)) throw new ConflictError(`${email} already has an account.`);
-  if (await getOpenInvitationByEmail(email)) throw new ConflictError(`${email} is already invited; resend that invitation instead.`);
+  // Both lookups every time, so a refusal does the same reading as an invitation before it answers.
+  const [account, openInvitation] = await Promise.all([getUserByEmail(email), getOpenInvitationByEmail(email)]);
+  if (account) throw new ConflictError(`${email} already has an account.`);
+  if (openInvitation) throw new ConflictError(`${email} is already invited; resend that invitation instead.`);
   const token = newSecretToken();
   let invitation: Invitation;
   try {
@@ -54,22 +77,28 @@ export async function inviteUser(input: { email: string; role: Role; inviter: Cu
     if ((err as { code?: string }).code === "23505") throw new ConflictError(`${email} is already invited; resend that invitation instead.`);
     throw err;
   }
-  await sendInvitationEmail({ to: email, role: input.role, inviterName: input.inviter.name, token, expiresAt: invitation.expiresAt });
-  return invitation;
+  const deliver = deliveryOf(
+    { to: email, role: input.role, inviterName: input.inviter.name, token, expiresAt: invitation.expiresAt },
+    { actorId: input.inviter.id, invitationId: invitation.id, ip: meta.ip },
+  );
+  return { invitation, deliver };
 }
 
 /**
- * Sends an open invitation again with a new link and a fresh expiry; the old link stops working.
+ * Renews an open invitation with a new link and a fresh expiry (the old link stops working) and returns the
+ * delivery of the new e-mail, to run after the answer like inviteUser's.
  * @throws NotFoundError when the invitation is not open
  */
-export async function resendInvitation(input: { invitationId: string; actor: CurrentUser }, meta: RequestMeta): Promise<void> {
+export async function resendInvitation(input: { invitationId: string; actor: CurrentUser }, meta: RequestMeta): Promise<{ deliver: InvitationDelivery }> {
   const invitation = await getOpenInvitationById(input.invitationId);
   if (!invitation) throw new NotFoundError("That invitation");
   const token = newSecretToken();
   const expiresAt = expiry();
   await renewInvitation(invitation.id, hashSecretToken(token), expiresAt);
   await recordAudit({ actorId: input.actor.id, action: "invitation.resent", entityType: "invitation", entityId: invitation.id, detail: { email: invitation.email }, ip: meta.ip });
-  await sendInvitationEmail({ to: invitation.email, role: invitation.role, inviterName: input.actor.name, token, expiresAt });
+  return {
+    deliver: deliveryOf({ to: invitation.email, role: invitation.role, inviterName: input.actor.name, token, expiresAt }, { actorId: input.actor.id, invitationId: invitation.id, ip: meta.ip }),
+  };
 }
 
 /** Revokes an open invitation. @throws NotFoundError when it is not open */

@@ -1,6 +1,7 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
+import { after } from "next/server";
 import { getCurrentUser } from "@/lib/auth/current-user";
 import { inviteUser, resendInvitation, revokeInvitation } from "@/lib/auth/invitations";
 import { changeRole, setUserStatus } from "@/lib/auth/people";
@@ -15,7 +16,9 @@ export async function inviteAction(_prev: FormState, formData: FormData): Promis
     const actor = requirePermission(await getCurrentUser(), "people:manage");
     const parsed = inviteSchema.safeParse(fields);
     if (!parsed.success) return keepValues(invalidState(parsed.error), { email: fields.email, role: fields.role });
-    await inviteUser({ ...parsed.data, inviter: actor }, await requestMeta());
+    const { deliver } = await inviteUser({ ...parsed.data, inviter: actor }, await requestMeta());
+    // The e-mail goes out after the answer, so an invitation is answered as fast as an address with an account.
+    after(deliver);
     revalidatePath("/people");
     return { ok: true, message: `Invitation sent to ${parsed.data.email} as ${parsed.data.role}. The link works for 7 days.` };
   } catch (err) {
@@ -28,7 +31,8 @@ export async function resendInvitationAction(_prev: FormState, formData: FormDat
     const actor = requirePermission(await getCurrentUser(), "people:manage");
     const parsed = invitationIdSchema.safeParse(formFields(formData));
     if (!parsed.success) return invalidState(parsed.error);
-    await resendInvitation({ ...parsed.data, actor }, await requestMeta());
+    const { deliver } = await resendInvitation({ ...parsed.data, actor }, await requestMeta());
+    after(deliver);
     revalidatePath("/people");
     return { ok: true, message: "Sent again with a new link." };
   } catch (err) {
