@@ -1,9 +1,11 @@
 import { NextResponse, type NextRequest } from "next/server";
 import { percentEscapesValid } from "@/lib/http/percent-escapes";
 
-// Answers a URL the router could not decode with a 400 instead of the framework's plain-text 500. It runs only
-// for requests without a body (see `config`): with a proxy in the way Next buffers a request body until it has
-// all of it (and cuts it at 10 MB), which would break streamed uploads and the early 413 of oversized JSON.
+// Answers a URL the router could not decode with a 400 instead of the framework's plain-text 500. It runs for
+// requests without a body, and for requests with one only when the raw path holds a "%" (see `config`): with a
+// proxy in the way Next buffers a request body until it has all of it (and cuts it at 10 MB), which would break
+// streamed uploads and the early 413 of oversized JSON. Our ids are UUIDs, so no client of ours writes a "%" in a
+// path; the buffering meets hand-made URLs only, and a well-formed one still reaches its route, body and all.
 // The security headers come from next.config.mjs, which touches no body.
 
 function badEscapeAnswer(pathname: string): Response {
@@ -34,5 +36,8 @@ export const config = {
         { type: "header", key: "transfer-encoding" },
       ],
     },
+    // Next tests the matcher against the raw path as well as the decoded one, so a path that cannot be decoded
+    // still holds its "%" here.
+    { source: "/:escaped(.*%.*)" },
   ],
 };
