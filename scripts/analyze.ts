@@ -9,7 +9,7 @@
  * a short table. Bad input: exit status 1, one line on stderr, nothing on stdout. Bad usage: 2.
  */
 import { closeSync, fstatSync, openSync, readSync } from "node:fs";
-import { MessageChannel, receiveMessageOnPort, Worker } from "node:worker_threads";
+import { MessageChannel, type MessagePort, receiveMessageOnPort, Worker } from "node:worker_threads";
 import {
   analysisChannels,
   analyzeCapture,
@@ -20,6 +20,7 @@ import {
   CaptureImportError,
   type Capture,
   formatSampleRate,
+  type ParsedRows,
   type Spectrum,
   windowedSpectrum,
 } from "../lib/analysis";
@@ -82,8 +83,43 @@ function parseArguments(argv: string[]): Arguments {
   return { file, channel, harmonics, probe, json };
 }
 
+// Files this large have their second half parsed on the worker thread while this one parses the
+// first; below it the worker's start-up takes longer than the half it would save.
+const PARALLEL_PARSE_BYTES = 4 << 20;
+
+/**
+ * Hands the data rows from the next line feed after halfway through what is left to the worker,
+ * into the room the importer sets aside for them; undefined when the header is not read yet or the
+ * file is too short to bother.
+ */
+function startSecondHalf(worker: Worker, fd: number, path: string, importer: CaptureImporter, position: number, size: number) {
+  const known = importer.rowLayout();
+  if (!known || known.rowsSoFar < 2 || size - position < PARALLEL_PARSE_BYTES / 2) return undefined;
+  const middle = position + Math.floor((size - position) / 2);
+  const probe = new Uint8Array(1 << 16);
+  const newline = probe.subarray(0, readSync(fd, probe, 0, probe.length, middle)).indexOf(0x0a);
+  if (newline < 0) return undefined;
+  const startByte = middle + newline + 1;
+  const bytesPerRow = (position - known.dataStartByte) / known.rowsSoFar;
+  // The rows before the split, with room to spare: the importer moves elsewhere if it needs more.
+  const firstRow = Math.ceil(((startByte - known.dataStartByte) / bytesPerRow) * 1.03) + 1024;
+  const channels = importer.releaseTail(firstRow);
+  const capacity = Math.ceil(((size - startByte) / bytesPerRow) * 1.15) + 1024;
+  const done = new SharedArrayBuffer(4);
+  const { port1, port2 } = new MessageChannel();
+  worker.postMessage({ kind: "parse", path, startByte, layout: known.layout, channels, capacity, port: port2, done }, [port2]);
+  const wait = (): ParsedRows | undefined => {
+    const reply = awaitWorker(done, port1) as { rows?: ParsedRows; inPlace?: boolean } | undefined;
+    const rows = reply?.rows;
+    // Our own views of the arrays the worker filled, so the importer sees they are its own buffer.
+    if (rows && reply?.inPlace && channels) rows.channels = channels.map((c) => c.subarray(0, rows.count));
+    return rows;
+  };
+  return { startByte, wait };
+}
+
 /** Streams the file through the importer in 1 MB chunks: the text never sits in memory whole. */
-function importFile(path: string) {
+function importFile(path: string, worker?: Worker) {
   let fd: number;
   try {
     fd = openSync(path, "r");
@@ -94,13 +130,29 @@ function importFile(path: string) {
   try {
     const stat = fstatSync(fd);
     if (stat.isDirectory()) throw new CaptureImportError(`cannot read ${path}: it is a directory`);
-    const importer = new CaptureImporter({ sizeHintBytes: stat.size });
+    const importer = new CaptureImporter({ sizeHintBytes: stat.size, sharedMemory: worker !== undefined });
     const buffer = new Uint8Array(CHUNK_BYTES);
-    for (;;) {
-      const read = readSync(fd, buffer, 0, CHUNK_BYTES, null);
-      if (read === 0) break;
-      // The importer copies what it keeps, so one buffer serves every chunk.
-      importer.push(buffer.subarray(0, read));
+    const parallel = worker !== undefined && stat.size >= PARALLEL_PARSE_BYTES;
+    let secondHalf: ReturnType<typeof startSecondHalf>;
+    let position = 0;
+    const pushUpTo = (end: number) => {
+      while (position < end) {
+        const read = readSync(fd, buffer, 0, Math.min(CHUNK_BYTES, end - position), position);
+        if (read === 0) break;
+        position += read;
+        // The importer copies what it keeps, so one buffer serves every chunk.
+        importer.push(buffer.subarray(0, read));
+        if (parallel && !secondHalf && end === Infinity) {
+          secondHalf = startSecondHalf(worker, fd, path, importer, position, stat.size);
+          if (secondHalf) end = secondHalf.startByte;
+        }
+      }
+    };
+    pushUpTo(Infinity);
+    // The worker's rows, or, when it could not take them (a bad row), its half through the importer, which words the error.
+    if (secondHalf) {
+      const rows = secondHalf.wait();
+      if (!(rows && importer.pushParsedRows(rows))) pushUpTo(Infinity);
     }
     return importer.finish();
   } finally {
@@ -157,6 +209,20 @@ function table(result: AnalysisResult): string {
   return lines.join("\n") + "\n";
 }
 
+/**
+ * Blocks until the worker has answered on `port` (0 in the flag: not picked up yet, 1: working,
+ * 2: done). A worker that has not picked the job up within a couple of seconds is not coming; one
+ * that has is given as long as the work can take. undefined when there is no answer.
+ */
+function awaitWorker(done: SharedArrayBuffer, port: MessagePort): unknown {
+  const flag = new Int32Array(done);
+  Atomics.wait(flag, 0, 0, WORKER_START_MS);
+  if (Atomics.load(flag, 0) === 1) Atomics.wait(flag, 0, 1, WORKER_WAIT_MS);
+  const reply = receiveMessageOnPort(port)?.message;
+  port.close();
+  return reply;
+}
+
 // Records this long are worth a second thread for their spectrum; shorter ones finish before it starts.
 const PARALLEL_SPECTRUM_SAMPLES = 200_000;
 const WORKER_START_MS = 2_000;
@@ -183,22 +249,22 @@ function startSpectrumWorker(): Worker | undefined {
  */
 function spectrumFromWorker(worker: Worker, capture: Capture, options: AnalyzeOptions): AnalyzeOptions["spectrumOf"] {
   const { channel } = analysisChannels(capture, options);
-  const samples = new SharedArrayBuffer(channel.samples.length * 8);
-  new Float64Array(samples).set(channel.samples);
+  // The importer kept the samples in shared memory; a copy only when it could not.
+  let samples = channel.samples.buffer;
+  let byteOffset = channel.samples.byteOffset;
+  if (!(samples instanceof SharedArrayBuffer)) {
+    samples = new SharedArrayBuffer(channel.samples.length * 8);
+    new Float64Array(samples).set(channel.samples);
+    byteOffset = 0;
+  }
   const done = new SharedArrayBuffer(4);
   const { port1, port2 } = new MessageChannel();
   worker.postMessage(
-    { samples, length: channel.samples.length, sampleRateHz: capture.sampleRateHz, maxFftLength: options.maxFftLength, port: port2, done },
+    { samples, byteOffset, length: channel.samples.length, sampleRateHz: capture.sampleRateHz, maxFftLength: options.maxFftLength, port: port2, done },
     [port2],
   );
   return (y, sampleRateHz, maxFftLength) => {
-    // 0: not picked up yet, 1: working, 2: done. A worker that has not picked the job up within
-    // a couple of seconds is not coming; one that has is given as long as the work can take.
-    const flag = new Int32Array(done);
-    Atomics.wait(flag, 0, 0, WORKER_START_MS);
-    if (Atomics.load(flag, 0) === 1) Atomics.wait(flag, 0, 1, WORKER_WAIT_MS);
-    const reply = receiveMessageOnPort(port1)?.message as { spectrum?: Spectrum } | undefined;
-    port1.close();
+    const reply = awaitWorker(done, port1) as { spectrum?: Spectrum } | undefined;
     void worker.terminate();
     return reply?.spectrum ?? windowedSpectrum(y, sampleRateHz, { maxFftLength });
   };
@@ -208,7 +274,7 @@ function main(argv: string[]): number {
   try {
     const args = parseArguments(argv);
     const worker = startSpectrumWorker();
-    const capture = applyProbeAttenuation(importFile(args.file), args.probe);
+    const capture = applyProbeAttenuation(importFile(args.file, worker), args.probe);
     const options: AnalyzeOptions = { channel: args.channel, harmonics: args.harmonics, plot: false };
     if (worker && capture.samples >= PARALLEL_SPECTRUM_SAMPLES) options.spectrumOf = spectrumFromWorker(worker, capture, options);
     else void worker?.terminate();

@@ -16,7 +16,13 @@ const bundle = path.join(outdir, "analyze.mjs");
 function newestSourceMs() {
   let newest = Math.max(statSync(entry).mtimeMs, statSync(workerEntry).mtimeMs, statSync(fileURLToPath(import.meta.url)).mtimeMs);
   const dir = path.join(root, "lib", "analysis");
-  for (const name of readdirSync(dir)) newest = Math.max(newest, statSync(path.join(dir, name)).mtimeMs);
+  for (const name of readdirSync(path.join(dir, "parse"))) newest = Math.max(newest, statSync(path.join(dir, "parse", name)).mtimeMs);
+  // One level of subfolders (lib/analysis/stability): a folder's own mtime does not change when a file in it is edited.
+  for (const entry of readdirSync(dir, { withFileTypes: true })) {
+    const full = path.join(dir, entry.name);
+    newest = Math.max(newest, statSync(full).mtimeMs);
+    if (entry.isDirectory()) for (const name of readdirSync(full)) newest = Math.max(newest, statSync(path.join(full, name)).mtimeMs);
+  }
   // lib/analysis's one import from outside itself: the engineering-notation formatter of its messages.
   newest = Math.max(newest, statSync(path.join(root, "lib", "oscillator", "units.ts")).mtimeMs);
   newest = Math.max(newest, statSync(path.join(root, "package-lock.json")).mtimeMs);

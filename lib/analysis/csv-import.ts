@@ -3,7 +3,7 @@ import { type CaptureColumn, parseColumnHeader } from "./columns";
 import { CaptureImportError } from "./errors";
 import { type CaptureDelimiter, guessDelimiter, isNumericLine, namesAColumn, splitCells } from "./header-lines";
 import { findPreambleTiming } from "./preamble";
-import { CONTROL_CHARACTER, MAX_ABS_VOLTS, ROLE_SKIP, ROLE_TIME, RowParser } from "./row-parser";
+import { CONTROL_CHARACTER, MAX_ABS_VOLTS, type ParsedRows, ROLE_SKIP, ROLE_TIME, type RowLayout, RowParser } from "./row-parser";
 
 export { MAX_ABS_VOLTS };
 
@@ -43,6 +43,11 @@ export interface Capture {
 export interface CaptureImportOptions {
   /** Size of the whole file in bytes, when known: lets the importer allocate its arrays once. */
   sizeHintBytes?: number;
+  /**
+   * Keep the samples in SharedArrayBuffers (the channels are still Float64Arrays), so a command can
+   * hand them to another thread without copying, and let another thread parse part of the rows.
+   */
+  sharedMemory?: boolean;
 }
 
 /** The fewest samples the engine accepts: below this no spectrum or fit means anything. */
@@ -99,10 +104,49 @@ export class CaptureImporter {
   private headerLine = 0;
   private preambleIntervalS?: number;
   private readonly sizeHintBytes?: number;
+  private readonly sharedMemory: boolean;
+  /** Bytes of the file before the first data row (after the byte-order mark, if any). */
+  private dataStartBytes = 0;
+  private bomBytes = 0;
 
   /** @param options - see {@link CaptureImportOptions} */
   constructor(options: CaptureImportOptions = {}) {
     this.sizeHintBytes = options.sizeHintBytes;
+    this.sharedMemory = options.sharedMemory === true;
+  }
+
+  /**
+   * Once the header is read: the layout of the data rows and where in the file they start, for a
+   * parser of a later stretch of them ({@link parseRowStretch}); undefined before that.
+   */
+  rowLayout(): { layout: RowLayout; dataStartByte: number; rowsSoFar: number } | undefined {
+    if (!this.rows || this.finished) return undefined;
+    return { layout: this.rows.layout(), dataStartByte: this.bomBytes + this.dataStartBytes, rowsSoFar: this.rows.count };
+  }
+
+  /**
+   * Hands the room for rows from `firstRow` on to a parser of a later stretch of the file (the
+   * shared arrays it should fill, see {@link RowParserOptions.channels}); this importer keeps
+   * filling the rows before it and copies itself elsewhere if there are more.
+   * @returns the arrays, or undefined when there is no such room (then parse without them)
+   */
+  releaseTail(firstRow: number): Float64Array[] | undefined {
+    if (!this.rows || !this.sharedMemory) return undefined;
+    return this.rows.releaseTail(firstRow);
+  }
+
+  /**
+   * Appends the rows another parser read from the bytes that follow everything pushed so far,
+   * which must have ended just after a line feed. Their stamps are checked and summed in order,
+   * exactly as if the bytes had been pushed.
+   * @returns false, with nothing changed, when the rows cannot be taken this way (a stamp fails
+   *   its check, the pushed bytes did not end a line, too few rows so far): push those bytes instead,
+   *   which gives the exact error
+   */
+  pushParsedRows(rows: ParsedRows): boolean {
+    if (this.finished) throw new TypeError("CaptureImporter.pushParsedRows called after finish()");
+    if (!this.rows || (this.carry && this.carry.length > 0)) return false;
+    return this.rows.appendRows(rows);
   }
 
   /**
@@ -122,7 +166,10 @@ export class CaptureImporter {
       if ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff)) {
         throw new CaptureImportError("the file is UTF-16 text; save the capture as UTF-8 or ASCII CSV");
       }
-      if (bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) bytes = bytes.subarray(3);
+      if (bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) {
+        bytes = bytes.subarray(3);
+        this.bomBytes = 3;
+      }
     }
     // Feed the head in small slices so a big chunk is not copied whole before the header is found;
     // once it is, the rest of the chunk goes straight to the row parser.
@@ -345,6 +392,7 @@ export class CaptureImporter {
       this.preambleIntervalS = intervalS;
     }
     const dataStart = header.end;
+    this.dataStartBytes = dataStart;
     let capacity = 1 << 16;
     if (this.sizeHintBytes !== undefined && firstData) {
       const rowBytes = Math.max(4, new TextEncoder().encode(firstData.text).length + 1);
@@ -358,6 +406,7 @@ export class CaptureImporter {
       this.delimiter !== ",",
       header.lineNumber,
       capacity,
+      { shared: this.sharedMemory },
     );
     const rest = this.head.slice(dataStart, this.headLength);
     this.head = new Uint8Array(0);

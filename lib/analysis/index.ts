@@ -34,6 +34,9 @@ export type {
 } from "./analysis-result";
 export { formatSampleRate } from "./format-rate";
 export { CaptureImporter, importCapture, MAX_ABS_VOLTS, MIN_SAMPLES } from "./csv-import";
+export { parseRowStretch } from "./parse/row-stretch";
+export type { RowStretchOptions } from "./parse/row-stretch";
+export type { ParsedRows, RowLayout } from "./row-parser";
 export type { Capture, CaptureChannel, CaptureImportOptions, TimeSource } from "./csv-import";
 export type { CaptureColumn, ColumnKind } from "./columns";
 export { CaptureImportError } from "./errors";

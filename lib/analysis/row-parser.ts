@@ -25,10 +25,55 @@ const NUMBER_TEXT = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
  */
 export const MAX_ABS_VOLTS = 1e9;
 
-function growTo(array: Float64Array, capacity: number): Float64Array {
-  const grown = new Float64Array(capacity);
+function growTo(array: Float64Array, capacity: number, shared: boolean): Float64Array {
+  const grown = newSamples(capacity, shared);
   grown.set(array);
   return grown;
+}
+
+function newSamples(length: number, shared: boolean): Float64Array {
+  return shared ? new Float64Array(new SharedArrayBuffer(length * 8)) : new Float64Array(length);
+}
+
+/** How a data row is laid out: what {@link RowParser} needs besides its position in the file. */
+export interface RowLayout {
+  /** Per column: ROLE_TIME, ROLE_SKIP or the index of the channel it fills. */
+  roles: number[];
+  /** Per column: factor from the file's number to volts (channels only). */
+  scales: number[];
+  /** Per column: the header cell, for messages. */
+  columnHeaders: string[];
+  /** `,`, `;` or a tab. */
+  delimiter: string;
+  /** Whether `,` may be the decimal mark (never with a comma delimiter). */
+  decimalComma: boolean;
+}
+
+/** Options for {@link RowParser} beyond the layout. */
+export interface RowParserOptions {
+  /** Keep the samples in SharedArrayBuffers, so another thread can read them without a copy. */
+  shared?: boolean;
+  /** Arrays to fill first (for example a stretch of another parser's shared arrays); grown by copying when full. */
+  channels?: Float64Array[];
+  /**
+   * Parse a stretch of rows that does not start the record: keep every stamp (and where its printed
+   * precision changes) instead of checking the spacing, for {@link RowParser.appendRows} of the
+   * parser that holds the rows before it.
+   */
+  keepTimes?: boolean;
+}
+
+/** Rows a `keepTimes` parser read: the channels, the stamps and the lines they took. */
+export interface ParsedRows {
+  count: number;
+  /** Lines consumed, blank ones included. */
+  lines: number;
+  /** Per channel, `count` samples in volts. */
+  channels: Float64Array[];
+  /** `count` stamps in the time column's unit (empty without a time column). */
+  times: Float64Array;
+  /** Pairs (row, printed precision of the stamps from that row on). */
+  quantumRuns: number[];
 }
 
 /**
@@ -71,6 +116,11 @@ export class RowParser {
   private capacity: number;
   /** One growing array per stored channel, in channel order. */
   channels: Float64Array[];
+  private readonly shared: boolean;
+  private readonly keepTimes: boolean;
+  /** The stamps of a `keepTimes` parser. */
+  private times: Float64Array;
+  private readonly quantumRuns: number[] = [];
   private readonly decoder = new TextDecoder("utf-8");
 
   /**
@@ -90,6 +140,7 @@ export class RowParser {
     decimalComma: boolean,
     headerLineNumber: number,
     initialCapacity: number,
+    options: RowParserOptions = {},
   ) {
     this.roles = Int32Array.from(roles);
     this.scales = Float64Array.from(scales);
@@ -99,9 +150,127 @@ export class RowParser {
     this.hasTime = roles.includes(ROLE_TIME);
     this.timeScale = this.hasTime ? scales[roles.indexOf(ROLE_TIME)] : 1;
     this.lineNumber = headerLineNumber;
-    this.capacity = Math.max(64, Math.ceil(initialCapacity));
     const channelCount = roles.reduce((n, role) => (role >= 0 ? n + 1 : n), 0);
-    this.channels = Array.from({ length: channelCount }, () => new Float64Array(this.capacity));
+    this.shared = options.shared === true;
+    this.keepTimes = options.keepTimes === true && this.hasTime;
+    if (options.channels && options.channels.length === channelCount && channelCount > 0) {
+      this.capacity = Math.min(...options.channels.map((c) => c.length));
+      this.channels = [...options.channels];
+    } else {
+      this.capacity = Math.max(64, Math.ceil(initialCapacity));
+      this.channels = Array.from({ length: channelCount }, () => newSamples(this.capacity, this.shared));
+    }
+    this.times = new Float64Array(this.keepTimes ? this.capacity : 0);
+  }
+
+  /** The layout this parser reads, for a parser of a later stretch of the same rows. */
+  layout(): RowLayout {
+    return {
+      roles: Array.from(this.roles),
+      scales: Array.from(this.scales),
+      columnHeaders: this.columnHeaders,
+      delimiter: String.fromCharCode(this.delimiter),
+      decimalComma: this.decimalComma,
+    };
+  }
+
+  /**
+   * Takes over the rows a `keepTimes` parser read from the lines right after the last one parsed
+   * here, checking their stamps' spacing and adding them to the time-base sums in order, exactly
+   * as parsing them here would.
+   *
+   * @returns false, with nothing changed, when a stamp fails a check or this parser holds fewer
+   *   than two rows: the caller then parses those lines here, which words the error
+   */
+  appendRows(rows: ParsedRows): boolean {
+    const n = rows.count;
+    if (this.hasTime && n > 0) {
+      if (this.count < 2 || rows.times.length < n) return false;
+      const maxSpacingError = 0.01;
+      const times = rows.times;
+      const runs = rows.quantumRuns;
+      const firstTime = this.firstTime;
+      let count = this.count;
+      let previousTime = this.lastTime;
+      let previousQuantum = this.lastQuantum;
+      let timeQuantum = previousQuantum;
+      let run = 0;
+      let sumI = this.sumI;
+      let sumT = this.sumT;
+      let sumII = this.sumII;
+      let sumIT = this.sumIT;
+      // The same checks and sums, term for term, as the parse loop's for rows after the second.
+      for (let r = 0; r < n; r++) {
+        if (run < runs.length && runs[run] === r) {
+          timeQuantum = runs[run + 1];
+          run += 2;
+        }
+        const time = times[r];
+        const spacing = time - previousTime;
+        const slack = 0.5 * (timeQuantum + previousQuantum);
+        const expected = (previousTime - firstTime) / (count - 1);
+        if (!(spacing > 0) && !(spacing > -slack && expected <= 2 * slack)) return false;
+        if (Math.abs(spacing - expected) > maxSpacingError * expected + slack) return false;
+        const t = time - firstTime;
+        const i = count + -0;
+        sumI += i;
+        sumT += t;
+        sumII += i * i;
+        sumIT += i * t;
+        previousTime = time;
+        previousQuantum = timeQuantum;
+        count++;
+      }
+      this.sumI = sumI;
+      this.sumT = sumT;
+      this.sumII = sumII;
+      this.sumIT = sumIT;
+      this.lastQuantum = previousQuantum;
+      this.lastTime = previousTime;
+    }
+    const total = this.count + n;
+    for (let k = 0; k < this.channels.length; k++) {
+      const own = this.channels[k];
+      const theirs = rows.channels[k].subarray(0, n);
+      const buffer = own.buffer;
+      // Rows parsed into a later stretch of this parser's own buffer move down in place.
+      if (theirs.buffer === buffer && theirs.byteOffset >= own.byteOffset + this.count * 8) {
+        const whole = new Float64Array(buffer, own.byteOffset, (buffer.byteLength - own.byteOffset) / 8);
+        whole.copyWithin(this.count, (theirs.byteOffset - own.byteOffset) / 8, (theirs.byteOffset - own.byteOffset) / 8 + n);
+        this.channels[k] = whole;
+      } else {
+        const grown = own.length >= total ? own : growTo(own.subarray(0, this.count), total, this.shared);
+        grown.set(theirs, this.count);
+        this.channels[k] = grown;
+      }
+    }
+    this.capacity = Math.min(...this.channels.map((c) => c.length));
+    this.count = total;
+    this.lineNumber += rows.lines;
+    return true;
+  }
+
+  /** What a `keepTimes` parser has read so far. */
+  parsedRows(): ParsedRows {
+    return {
+      count: this.count,
+      lines: this.lineNumber,
+      channels: this.channels.map((c) => c.subarray(0, this.count)),
+      times: this.times.subarray(0, this.keepTimes ? this.count : 0),
+      quantumRuns: this.quantumRuns,
+    };
+  }
+
+  /**
+   * Gives up the arrays' room from row `firstRow` on (for a parser of a later stretch to fill) and
+   * keeps the rows before it; undefined when this parser already holds that many rows.
+   */
+  releaseTail(firstRow: number): Float64Array[] | undefined {
+    if (!(firstRow > this.count + 64) || !(firstRow < this.capacity - 64)) return undefined;
+    const tails = this.channels.map((c) => c.subarray(firstRow));
+    this.channels = this.channels.map((c) => c.subarray(0, firstRow));
+    this.capacity = firstRow;
+    return tails;
   }
 
   /** Parses every line in `bytes[start, end)`; `bytes[end - 1]` must be a line feed. */
@@ -133,6 +302,9 @@ export class RowParser {
     const decimalComma = this.decimalComma;
     const skipTabs = delimiter !== TAB;
     const hasTime = this.hasTime;
+    const keepTimes = this.keepTimes;
+    const quantumRuns = this.quantumRuns;
+    let times = this.times;
     let channels = this.channels;
     let count = this.count;
     let line = this.lineNumber;
@@ -159,7 +331,8 @@ export class RowParser {
       }
       if (count === this.capacity) {
         this.capacity = Math.ceil(this.capacity * 1.5);
-        for (let k = 0; k < channels.length; k++) channels[k] = growTo(channels[k], this.capacity);
+        for (let k = 0; k < channels.length; k++) channels[k] = growTo(channels[k], this.capacity, this.shared);
+        if (keepTimes) this.times = times = growTo(times, this.capacity, false);
       }
       let column = 0;
       let time = 0;
@@ -314,7 +487,12 @@ export class RowParser {
         channels = this.channels;
         for (let k = 0; k < parsed.values.length; k++) channels[k][count] = parsed.values[k];
       }
-      if (hasTime) {
+      if (keepTimes) {
+        times[count] = time;
+        if (count === 0 || timeQuantum !== previousQuantum) quantumRuns.push(count, timeQuantum);
+        previousTime = time;
+        previousQuantum = timeQuantum;
+      } else if (hasTime) {
         if (count === 0) {
           this.firstTime = time;
         } else {

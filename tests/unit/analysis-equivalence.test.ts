@@ -174,3 +174,44 @@ describe("analysis results stay as recorded before the speed work", () => {
     if (command) expect(differences(fromCommand, expected.command)).toEqual([]);
   });
 });
+
+/**
+ * A file large enough for the command to parse its second half on the worker thread, with one
+ * fault placed there: the command must word it exactly as the importer reading the file alone.
+ */
+describe("the command's two-thread import words every refusal as the importer does", () => {
+  const rows = 200_000; // 4.9 MB: above the command's 4 MB threshold for a parallel parse
+  const base = synthCaptureCsv({ frequencyHz: 12_345.6, sampleRateHz: 1e6, samples: rows, amplitudeV: 1, noiseVrms: 0.001, seed: 21 });
+  const lines = base.split("\n");
+  const late = Math.floor(rows * 0.8);
+  const faults: [string, (ls: string[]) => void][] = [
+    ["a bad value", (ls) => (ls[late] = ls[late].replace(/,[^,]*$/, ",1.2.3"))],
+    ["a missing row", (ls) => ls.splice(late, 1)],
+    ["a time going backwards", (ls) => (ls[late] = ls[late - 2])],
+    ["an extra cell", (ls) => (ls[late] += ",0.5")],
+    ["a blank line and a bad row after it", (ls) => ls.splice(late, 1, "", "x,y")],
+    ["a value out of range", (ls) => (ls[late] = ls[late].replace(/,[^,]*$/, ",5e12"))],
+    ["a quoted row and a good tail", (ls) => (ls[late] = ls[late].replace(/,([^,]*)$/, ',"$1"'))],
+    ["no line feed at the end", (ls) => ls.pop()],
+  ];
+  it.each(faults)("%s", (name, fault) => {
+    const faulty = [...lines];
+    fault(faulty);
+    const text = faulty.join("\n");
+    let expected: string;
+    try {
+      const { result } = analyzeCapture(importCapture(text), { plot: false });
+      expected = `samples ${result.samples} frequency ${result.frequencyHz}`;
+    } catch (error) {
+      expected = `analyze: ${(error as Error).message}`;
+    }
+    const file = path.join(dir, `fault-${name.replace(/\W+/g, "-")}.csv`);
+    writeFileSync(file, text);
+    const run = spawnSync(process.execPath, [path.join(root, "scripts/run-analyze.mjs"), file, "--json"], { cwd: root, encoding: "utf8", timeout: 120_000 });
+    const actual = run.status === 0 ? (() => {
+      const result = JSON.parse(run.stdout);
+      return `samples ${result.samples} frequency ${result.frequencyHz}`;
+    })() : run.stderr.trim();
+    expect(actual).toBe(expected);
+  });
+});
