@@ -3,12 +3,14 @@ import type { FrequencyUncertainty } from "./frequency-uncertainty";
 import type { Harmonic } from "./harmonic-report";
 import type { PlotData } from "./plot";
 import type { Spur } from "./spurs";
+import type { StabilityResult } from "./stability/types";
 import type { GainPhase } from "./two-channel";
 import type { AnalysisWarning } from "./warnings";
 
 export type { Harmonic, HarmonicStatus } from "./harmonic-report";
 export type { Spur, SpurKind } from "./spurs";
 export type { FrequencyUncertainty } from "./frequency-uncertainty";
+export type { StabilityResult } from "./stability/types";
 
 /** THD's status and floor, as stored with the result. */
 export interface ThdSummary {
@@ -106,6 +108,11 @@ export interface AnalysisResult {
    */
   inRecordDrift: InRecordDrift | null;
   warnings: AnalysisWarning[];
+  /**
+   * Phase noise, jitter, period jitter, Allan deviation and start-up or ring-down (engine ≥ 1.3.0).
+   * Results stored by an older engine have none: read its absence as "not measured".
+   */
+  stability?: StabilityResult;
   twoChannel: TwoChannelResult | null;
   /** Preamble metadata of the file, when the result came from a capture. */
   metadata: Record<string, string>;

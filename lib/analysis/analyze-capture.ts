@@ -12,6 +12,7 @@ import { fitSine4, type SineFit } from "./sine-fit";
 import { coarsePeakHz, type Spectrum, windowedSpectrum } from "./spectrum";
 import { findSpurs, largestOtherBin } from "./spurs";
 import { gainPhaseFromFits } from "./two-channel";
+import { measureStability } from "./stability";
 import { buildWarnings, checkClipping, checkDrift, checkEnvelope, checkTone } from "./warnings";
 import { ENGINE_VERSION } from "./version";
 
@@ -160,7 +161,9 @@ function analyzeRecord(
   const spurs = findSpurs(spectrum, frequencyHz, fundamentalVpk, harmonics.map((h) => h.seenAtHz), maxOrder);
   const largestSpur = largestComponent(harmonics, spurs, spectrum, frequencyHz, fundamentalVpk);
 
-  const warnings = buildWarnings({ cycles, samplesPerCycle, clipping, envelope, drift, maxV: max, minV: min, tone, spurs, frequencyHz });
+  const steady = envelope ? envelope.change <= envelope.allowed : undefined;
+  const stability = measureStability({ samples: y, cleaned, sampleRateHz, startTimeS, tone: fit, frequencyHz, steady, dominantTone: tone.detected && tone.dominant });
+  const warnings = buildWarnings({ cycles, samplesPerCycle, clipping, envelope, drift, maxV: max, minV: min, tone, spurs, frequencyHz, transient: stability.envelope });
   const t7 = now();
 
   let twoChannel: TwoChannelResult | null = null;
@@ -236,6 +239,7 @@ function analyzeRecord(
         }
       : null,
     warnings,
+    stability,
     twoChannel,
     metadata: {},
     channels: [],

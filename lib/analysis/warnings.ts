@@ -2,6 +2,8 @@ import { fitHarmonics } from "./harmonic-fit";
 import { fitFrequencySigmaHz, fitSine4 } from "./sine-fit";
 import { formatEngineering } from "../oscillator/units";
 import type { Spur } from "./spurs";
+import { describeTransient } from "./stability/describe";
+import type { StabilityEnvelope } from "./stability/types";
 
 /** Why a capture's figures may not be trusted. */
 export type WarningCode =
@@ -254,6 +256,14 @@ export interface WarningInputs {
   tone?: ToneCheck;
   spurs?: readonly Spur[];
   frequencyHz?: number;
+  /** The envelope's measured start-up or ring-down, added to the not-steady warning. */
+  transient?: StabilityEnvelope;
+}
+
+// The not-steady code stays (a spec fails the record either way); a measured transient adds its figure.
+function transientText(transient: StabilityEnvelope | undefined): string {
+  const text = describeTransient(transient);
+  return text ? ` ${text.charAt(0).toUpperCase()}${text.slice(1)}.` : "";
 }
 
 /**
@@ -299,7 +309,7 @@ export function buildWarnings(inputs: WarningInputs): AnalysisWarning[] {
       code: "not-steady",
       message: `The amplitude changes by ${percent(envelope.change)} across the record (${envelope.segmentAmplitudesV
         .map((a) => a.toPrecision(3))
-        .join(", ")} V): a start-up transient or a dying oscillation; capture once it has settled.`,
+        .join(", ")} V): a start-up transient or a dying oscillation; capture once it has settled.${transientText(inputs.transient)}`,
     });
   }
   if (inputs.cycles < MIN_CYCLES) {
