@@ -1,5 +1,8 @@
-// One route under load: autocannon on loopback for a fixed time at a fixed number of connections, after a
-// shorter warm-up. Latencies are kept per response so p95 is exact (autocannon's own table stops at p90/p97.5).
+// One route under load: autocannon on loopback for a fixed time at a fixed number of connections. Latencies are
+// kept per response so p95 is exact (autocannon's own table stops at p90/p97.5). The targets compare a route with
+// the floor measured right beside it (interleaved pairs), because on a shared machine the floor itself moves by
+// ±15 % from minute to minute.
+import os from "node:os";
 import autocannon, { type AutocannonResult } from "autocannon";
 
 export interface RouteLoad {
@@ -25,12 +28,22 @@ export interface LoadFigures {
   non2xx: number;
   errors: number;
   meanBytes: number;
+  /** One-minute load average when the measurement ended. */
+  load1: number;
 }
 
 export interface LoadOptions {
   connections: number;
   durationS: number;
   warmupS: number;
+  /** Interleaved floor/route pairs per JSON route. */
+  pairs: number;
+}
+
+/** One floor measurement and one route measurement taken back to back. */
+export interface LoadPair {
+  floor: LoadFigures;
+  route: LoadFigures;
 }
 
 function percentile(sorted: Float64Array, p: number): number {
@@ -63,12 +76,16 @@ function fire(route: RouteLoad, connections: number, durationS: number, onRespon
   });
 }
 
+/** Load without measuring: Next compiles and caches lazily, pools fill. */
+export async function warmUp(route: RouteLoad, options: LoadOptions): Promise<void> {
+  if (options.warmupS > 0) await fire(route, options.connections, options.warmupS);
+}
+
 /**
- * Warms the route up (Next compiles and caches lazily, pools fill), then measures it.
+ * Measures the route for `options.durationS` (no warm-up: see {@link warmUp}).
  * @returns requests/s over the measured window and exact latency percentiles in ms
  */
 export async function measureRoute(route: RouteLoad, options: LoadOptions): Promise<LoadFigures> {
-  if (options.warmupS > 0) await fire(route, options.connections, options.warmupS);
   const latencies: number[] = [];
   let bytes = 0;
   const result = await fire(route, options.connections, options.durationS, (ms, b) => {
@@ -87,5 +104,24 @@ export async function measureRoute(route: RouteLoad, options: LoadOptions): Prom
     non2xx: result.non2xx,
     errors: result.errors + result.timeouts,
     meanBytes: latencies.length ? bytes / latencies.length : 0,
+    load1: os.loadavg()[0],
   };
+}
+
+/**
+ * `options.pairs` floor/route pairs, the order flipped every other pair so a trend in the machine's load
+ * (another process starting or ending) falls on both sides alike.
+ */
+export async function measurePairs(floor: RouteLoad, route: RouteLoad, options: LoadOptions): Promise<LoadPair[]> {
+  const pairs: LoadPair[] = [];
+  for (let i = 0; i < options.pairs; i++) {
+    if (i % 2 === 0) {
+      const f = await measureRoute(floor, options);
+      pairs.push({ floor: f, route: await measureRoute(route, options) });
+    } else {
+      const r = await measureRoute(route, options);
+      pairs.push({ floor: await measureRoute(floor, options), route: r });
+    }
+  }
+  return pairs;
 }

@@ -35,8 +35,10 @@ export interface BenchData {
   /** Every seeded build id, and one run id per build (the newest). */
   buildIds: string[];
   runIds: string[];
-  /** A build kept empty for the upload phase, so its duplicates check stays apart from the seeded runs. */
+  /** A build kept empty for the concurrent uploads, so its duplicates check stays apart from the seeded runs. */
   uploadBuildId: string;
+  /** Another empty build for the single uploads, so the concurrent phase's count of runs stays exact. */
+  singleUploadBuildId: string;
   /** Bytes of one run's results and plot JSON as stored. */
   resultsBytes: number;
   plotBytes: number;
@@ -108,6 +110,7 @@ export async function seedBenchData(log: (line: string) => void): Promise<BenchD
   }
   const uploadDesign = await createDesign({ user: engineer }, project.id, colpitts(DESIGNS));
   const uploadBuild = await createBuild({ user: technician }, uploadDesign.id, { label: "UPLOADS", kind: "pcb", kindRevision: "rev B" });
+  const singleUploadBuild = await createBuild({ user: technician }, uploadDesign.id, { label: "SINGLE", kind: "pcb", kindRevision: "rev B" });
 
   const { result, plotJson } = referenceAnalysis();
   const random = new SeededRandom(9);
@@ -196,6 +199,7 @@ export async function seedBenchData(log: (line: string) => void): Promise<BenchD
     buildIds: builds.map((b) => b.build.id),
     runIds,
     uploadBuildId: uploadBuild.id,
+    singleUploadBuildId: singleUploadBuild.id,
     resultsBytes,
     plotBytes: plotJson.length,
   };

@@ -122,9 +122,14 @@ export class BenchServices {
     this.log(`built in ${((Date.now() - started) / 1000).toFixed(0)} s`);
   }
 
-  /** `next start` and one standalone analysis worker (what `npm start` runs beside the app). */
-  async startAppAndWorker(): Promise<void> {
-    const app = this.spawnNode("web app", ["node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(bench.appPort)], {
+  /**
+   * `next start` and one standalone analysis worker (what `npm start` runs beside the app).
+   * @param options.cpuProfileDir - run next-server under --cpu-prof, writing its profile there when it stops
+   */
+  async startAppAndWorker(options: { cpuProfileDir?: string } = {}): Promise<void> {
+    const profile = options.cpuProfileDir ? ["--cpu-prof", "--cpu-prof-dir", options.cpuProfileDir] : [];
+    if (options.cpuProfileDir) rmSync(options.cpuProfileDir, { recursive: true, force: true });
+    const app = this.spawnNode("web app", [...profile, "node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(bench.appPort)], {
       NODE_ENV: "production",
     });
     this.spawnNode("analysis worker", ["--import", "tsx", "scripts/worker.ts"]);
