@@ -9,7 +9,7 @@
  */
 import { closeSync, openSync, readSync } from "node:fs";
 import { type MessagePort, parentPort } from "node:worker_threads";
-import { type ParsedRows, parseRowStretch, type RowLayout, windowedSpectrum } from "../lib/analysis";
+import { type ParsedRows, parseRowStretch, prepareWindowedSpectrum, type RowLayout, windowedSpectrum } from "../lib/analysis";
 
 interface Reply {
   port: MessagePort;
@@ -23,6 +23,9 @@ interface ParseJob extends Reply {
   layout: RowLayout;
   channels?: Float64Array[];
   capacity: number;
+  /** The whole record's expected length, to ready the spectrum while the main thread finishes its half. */
+  expectedSamples: number;
+  maxFftLength?: number;
 }
 
 interface SpectrumJob extends Reply {
@@ -77,6 +80,10 @@ function run(job: ParseJob | SpectrumJob): void {
       const reply = parse(job);
       const times = reply.rows?.times.buffer as ArrayBuffer | undefined;
       job.port.postMessage(reply, times && !(times instanceof SharedArrayBuffer) ? [times] : []);
+      // Marked done first: the main thread may be waiting, and readying the spectrum is only for later.
+      Atomics.store(flag, 0, 2);
+      Atomics.notify(flag, 0);
+      prepareWindowedSpectrum(job.expectedSamples, { maxFftLength: job.maxFftLength });
     } else {
       const reply = spectrum(job);
       job.port.postMessage(reply, [reply.spectrum.amplitudeVpk.buffer as ArrayBuffer]);

@@ -24,6 +24,7 @@ import {
   type Spectrum,
   windowedSpectrum,
 } from "../lib/analysis";
+import { stabilityLines } from "../lib/analysis/stability/summary";
 
 const USAGE = "usage: analyze FILE [--channel NAME] [--harmonics N] [--probe N] [--json]";
 const CHUNK_BYTES = 1 << 20;
@@ -107,7 +108,8 @@ function startSecondHalf(worker: Worker, fd: number, path: string, importer: Cap
   const capacity = Math.ceil(((size - startByte) / bytesPerRow) * 1.15) + 1024;
   const done = new SharedArrayBuffer(4);
   const { port1, port2 } = new MessageChannel();
-  worker.postMessage({ kind: "parse", path, startByte, layout: known.layout, channels, capacity, port: port2, done }, [port2]);
+  const expectedSamples = Math.round((size - known.dataStartByte) / bytesPerRow);
+  worker.postMessage({ kind: "parse", path, startByte, layout: known.layout, channels, capacity, expectedSamples, port: port2, done }, [port2]);
   const wait = (): ParsedRows | undefined => {
     const reply = awaitWorker(done, port1) as { rows?: ParsedRows; inPlace?: boolean } | undefined;
     const rows = reply?.rows;
@@ -203,6 +205,7 @@ function table(result: AnalysisResult): string {
     const tc = result.twoChannel;
     rows.push([`${tc.channel} vs ${tc.referenceChannel}`, `${tc.gainDb.toFixed(2)} dB, ${tc.phaseDeg.toFixed(2)}°`]);
   }
+  rows.push(...stabilityLines(result.stability));
   const width = Math.max(...rows.map(([label]) => label.length));
   const lines = rows.map(([label, value]) => `${label.padEnd(width)}  ${value}`);
   for (const w of result.warnings) lines.push(`warning [${w.code}] ${w.message}`);
@@ -243,11 +246,16 @@ function startSpectrumWorker(): Worker | undefined {
   }
 }
 
+// The engine's coarse frequency comes from the first 2^16 samples (lib/analysis/analyze-capture.ts);
+// the worker's spectrum of them is used only if the engine asks for exactly that head.
+const HEAD_SAMPLES = 1 << 16;
+
 /**
- * A spectrumOf for analyzeCapture that hands the work to the worker right away and, when the
- * engine asks for the result, blocks until the worker is done (or computes it here if it failed).
+ * spectrumOf and headSpectrumOf for analyzeCapture that hand the work to the worker right away
+ * (the head first: it is asked for first) and, when the engine asks for a result, block until the
+ * worker has it (or compute it here if the worker failed).
  */
-function spectrumFromWorker(worker: Worker, capture: Capture, options: AnalyzeOptions): AnalyzeOptions["spectrumOf"] {
+function spectraFromWorker(worker: Worker, capture: Capture, options: AnalyzeOptions): Pick<AnalyzeOptions, "spectrumOf" | "headSpectrumOf"> {
   const { channel } = analysisChannels(capture, options);
   // The importer kept the samples in shared memory; a copy only when it could not.
   let samples = channel.samples.buffer;
@@ -257,16 +265,25 @@ function spectrumFromWorker(worker: Worker, capture: Capture, options: AnalyzeOp
     new Float64Array(samples).set(channel.samples);
     byteOffset = 0;
   }
-  const done = new SharedArrayBuffer(4);
-  const { port1, port2 } = new MessageChannel();
-  worker.postMessage(
-    { samples, byteOffset, length: channel.samples.length, sampleRateHz: capture.sampleRateHz, maxFftLength: options.maxFftLength, port: port2, done },
-    [port2],
-  );
-  return (y, sampleRateHz, maxFftLength) => {
-    const reply = awaitWorker(done, port1) as { spectrum?: Spectrum } | undefined;
-    void worker.terminate();
-    return reply?.spectrum ?? windowedSpectrum(y, sampleRateHz, { maxFftLength });
+  const ask = (length: number, maxFftLength: number | undefined) => {
+    const done = new SharedArrayBuffer(4);
+    const { port1, port2 } = new MessageChannel();
+    worker.postMessage({ samples, byteOffset, length, sampleRateHz: capture.sampleRateHz, maxFftLength, port: port2, done }, [port2]);
+    return () => (awaitWorker(done, port1) as { spectrum?: Spectrum } | undefined)?.spectrum;
+  };
+  const headLength = Math.min(HEAD_SAMPLES, channel.samples.length);
+  const head = ask(headLength, undefined);
+  const whole = ask(channel.samples.length, options.maxFftLength);
+  return {
+    headSpectrumOf: (y, sampleRateHz) => {
+      const ours = y.length === headLength && y.buffer === channel.samples.buffer && y.byteOffset === channel.samples.byteOffset;
+      return (ours ? head() : undefined) ?? windowedSpectrum(y, sampleRateHz);
+    },
+    spectrumOf: (y, sampleRateHz, maxFftLength) => {
+      const spectrum = whole();
+      void worker.terminate();
+      return spectrum ?? windowedSpectrum(y, sampleRateHz, { maxFftLength });
+    },
   };
 }
 
@@ -276,7 +293,7 @@ function main(argv: string[]): number {
     const worker = startSpectrumWorker();
     const capture = applyProbeAttenuation(importFile(args.file, worker), args.probe);
     const options: AnalyzeOptions = { channel: args.channel, harmonics: args.harmonics, plot: false };
-    if (worker && capture.samples >= PARALLEL_SPECTRUM_SAMPLES) options.spectrumOf = spectrumFromWorker(worker, capture, options);
+    if (worker && capture.samples >= PARALLEL_SPECTRUM_SAMPLES) Object.assign(options, spectraFromWorker(worker, capture, options));
     else void worker?.terminate();
     const { result } = analyzeCapture(capture, options);
     process.stdout.write(args.json ? JSON.stringify(result) + "\n" : table(result));

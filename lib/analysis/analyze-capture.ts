@@ -39,6 +39,12 @@ export interface AnalyzeOptions {
    * this to another thread and block here until it is done; it is asked for after the first fit.
    */
   spectrumOf?: (samples: Float64Array, sampleRateHz: number, maxFftLength: number | undefined) => Spectrum;
+  /**
+   * Computes the windowed spectrum of the record's head (its first 2^16 samples, or all of a
+   * shorter record), where the coarse frequency comes from (default {@link windowedSpectrum});
+   * asked for first, so a command's worker that is ready can spare the main thread its start-up.
+   */
+  headSpectrumOf?: (head: Float64Array, sampleRateHz: number) => Spectrum;
 }
 
 const METHOD: AnalysisMethod = {
@@ -124,7 +130,7 @@ function analyzeRecord(
   // head's fit is good to a small fraction of the whole record's bin, where Gauss–Newton converges.
   const headLength = Math.min(n, COARSE_HEAD_SAMPLES);
   const head = headLength === n ? y : y.subarray(0, headLength);
-  const coarse = max > min ? coarseFrequency(head, sampleRateHz) : undefined;
+  const coarse = max > min ? coarseFrequency(head, sampleRateHz, options.headSpectrumOf?.(head, sampleRateHz)) : undefined;
   if (coarse === undefined) {
     throw new CaptureImportError("no oscillation found: the channel is flat");
   }

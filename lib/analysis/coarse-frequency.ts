@@ -1,5 +1,5 @@
 import { fitSine3 } from "./sine-fit";
-import { coarsePeakHz, windowedSpectrum } from "./spectrum";
+import { coarsePeakHz, type Spectrum, windowedSpectrum } from "./spectrum";
 
 /** Lowest tone searched, in periods per record: below about one period a sine and a DC slope look alike. */
 const LOWEST_CYCLES = 0.75;
@@ -31,10 +31,10 @@ function residualAt(y: Float64Array, sampleRateHz: number, frequencyHz: number):
  *
  * @param y - the record (or its head) in volts
  * @param sampleRateHz - sample rate in Hz
+ * @param spectrum - `windowedSpectrum(y, sampleRateHz)` when already computed (for example on another thread)
  * @returns the start frequency, or undefined when the record is flat
  */
-export function coarseFrequency(y: Float64Array, sampleRateHz: number): CoarseFrequency | undefined {
-  const spectrum = windowedSpectrum(y, sampleRateHz);
+export function coarseFrequency(y: Float64Array, sampleRateHz: number, spectrum = windowedSpectrum(y, sampleRateHz)): CoarseFrequency | undefined {
   const n = y.length;
   let mean = 0;
   for (let i = 0; i < n; i++) mean += y[i];

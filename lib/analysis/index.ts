@@ -42,7 +42,7 @@ export type { CaptureColumn, ColumnKind } from "./columns";
 export { CaptureImportError } from "./errors";
 export { applyProbeAttenuation } from "./probe";
 export type { HarmonicMarker, PlotData, SpectrumPlot, WaveformEnvelope } from "./plot";
-export { windowedSpectrum } from "./spectrum";
+export { prepareWindowedSpectrum, windowedSpectrum } from "./spectrum";
 export type { Spectrum, SpectrumOptions } from "./spectrum";
 export { gainPhaseAtFundamental } from "./two-channel";
 export type { GainPhase } from "./two-channel";

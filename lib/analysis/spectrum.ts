@@ -1,4 +1,4 @@
-import { nextPowerOfTwo, realFft } from "./fft";
+import { fftPlan, nextPowerOfTwo, realFft } from "./fft";
 import { WINDOW_COEFFICIENTS, type WindowName } from "./windows";
 
 /** A one-sided, windowed amplitude spectrum. */
@@ -138,6 +138,23 @@ export function windowedSpectrum(
     window,
     lobeHalfWidthBins: 4,
   };
+}
+
+/**
+ * Readies a thread for {@link windowedSpectrum} of a record of about `samples` samples, for a
+ * worker with time on its hands before the record arrives: builds the FFT plan of that length
+ * (a first call's largest set-up) and runs the code on short records until the optimising
+ * compiler has it, so the real call does not start out interpreted. Changes no result.
+ *
+ * @param samples - the expected record length (a wrong guess only wastes the plan)
+ * @param options - as for the real call
+ */
+export function prepareWindowedSpectrum(samples: number, options: SpectrumOptions = {}): void {
+  const segmentLength = Math.min(Math.max(2, Math.floor(samples)), options.maxFftLength ?? DEFAULT_MAX_FFT_LENGTH);
+  fftPlan(nextPowerOfTwo(segmentLength));
+  const short = new Float64Array(1 << 12);
+  for (let i = 0; i < short.length; i++) short[i] = Math.cos(0.3 * i);
+  for (let round = 0; round < 8; round++) windowedSpectrum(short, 1);
 }
 
 /**
