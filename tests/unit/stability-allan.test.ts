@@ -59,6 +59,24 @@ describe("overlapping Allan deviation of white FM", () => {
   it("falls as τ^−½", () => {
     expect(logLogSlope(allan.points)).toBeCloseTo(-0.5, 1);
   });
+
+  it("stands clear of the additive-noise floor", () => {
+    for (const p of allan.points) expect(p.atFloor).toBe(false);
+  });
+});
+
+describe("the Allan floor of a clean tone", () => {
+  it("puts every τ at the floor √3·σ_x/τ that its additive noise sets, and the deviation near it", () => {
+    const random = new SeededRandom(1142);
+    const allan = allanOf(toneWithPhase(new Float64Array(N), 1e-3, random));
+    expect(allan.points.length).toBeGreaterThan(5);
+    for (const p of allan.points) {
+      expect(p.atFloor).toBe(true);
+      // Independent block phases: the deviation scatters about the floor within its interval.
+      expect(p.adev / p.floorAdev).toBeGreaterThan(0.8);
+      expect(p.adev / p.floorAdev).toBeLessThan(1.2);
+    }
+  });
 });
 
 describe("overlapping Allan deviation of white PM", () => {

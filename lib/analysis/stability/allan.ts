@@ -1,4 +1,4 @@
-import { chiSquareQuantile } from "./stats";
+import { chiSquareQuantile, floorMargin } from "./stats";
 import type { AllanPoint } from "./types";
 
 export { chiSquareQuantile };
@@ -24,8 +24,10 @@ export function whiteFmEdf(phasePoints: number, m: number): number {
  * 1139-2008; NIST SP 1065 eq. for σ_y(τ) from phase data):
  * σ²_y(mτ0) = Σ_{j=0}^{N−2m−1} (x_{j+2m} − 2x_{j+m} + x_j)² / (2·(mτ0)²·(N − 2m)),
  * at octave-spaced m from `minM` up to N/4 (at least two independent second differences).
+ * `floorTimeErrorS` is the rms time error the additive noise puts on each sample; independent
+ * samples give white PM, σ_y = √3·σ_x/τ (derived: E(x_{j+2m} − 2x_{j+m} + x_j)² = 6σ_x²).
  */
-export function overlappingAllan(x: Float64Array, tau0S: number, minM = 1): AllanPoint[] {
+export function overlappingAllan(x: Float64Array, tau0S: number, minM = 1, floorTimeErrorS = 0): AllanPoint[] {
   const n = x.length;
   const points: AllanPoint[] = [];
   for (let m = minM; 4 * m <= n - 1; m *= 2) {
@@ -38,6 +40,7 @@ export function overlappingAllan(x: Float64Array, tau0S: number, minM = 1): Alla
     const tauS = m * tau0S;
     const adev = Math.sqrt(sum / (2 * tauS * tauS * terms));
     const edf = Math.max(1, whiteFmEdf(n, m));
+    const floorAdev = (Math.sqrt(3) * floorTimeErrorS) / tauS;
     points.push({
       tauS,
       adev,
@@ -45,6 +48,8 @@ export function overlappingAllan(x: Float64Array, tau0S: number, minM = 1): Alla
       upperAdev: adev * Math.sqrt(edf / chiSquareQuantile(edf, -1)),
       averages: terms,
       edf,
+      floorAdev,
+      atFloor: adev * adev < floorAdev * floorAdev * floorMargin(edf),
     });
   }
   return points;

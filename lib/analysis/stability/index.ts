@@ -147,7 +147,9 @@ export function measureStability(inputs: StabilityInputs): StabilityResult {
   const timeErrorS = new Float64Array(residual.phaseRad.length);
   const toSeconds = 1 / (2 * Math.PI * frequencyHz);
   for (let k = 0; k < timeErrorS.length; k++) timeErrorS[k] = residual.phaseRad[k] * toSeconds;
-  const allanPoints = overlappingAllan(timeErrorS, residual.blockSamples / sampleRateHz, MIN_ALLAN_BLOCKS);
+  // Additive noise of σ per sample leaves each block's phase an rms of σ·√(2/D)/A (the AM/PM split over D samples).
+  const floorTimeErrorS = ((additiveNoiseVrms * Math.sqrt(2 / residual.blockSamples)) / tone.amplitudeV) * toSeconds;
+  const allanPoints = overlappingAllan(timeErrorS, residual.blockSamples / sampleRateHz, MIN_ALLAN_BLOCKS, floorTimeErrorS);
   return {
     jitter,
     phaseNoise,

@@ -1,4 +1,4 @@
-import { floorMargin } from "./phase-noise";
+import { floorMargin } from "./stats";
 import type { StabilityPeriodJitter } from "./types";
 
 /** Fewer periods than this and an rms of them says little. */

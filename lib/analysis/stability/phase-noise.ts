@@ -1,20 +1,9 @@
 import type { PhaseResidual } from "./demodulate";
-import { chiSquareQuantile } from "./stats";
+import { floorMargin } from "./stats";
+
+export { floorMargin };
 import { bandIntegral, bandMean, detrend, hannPsd, type OneSidedPsd } from "./psd";
 import type { PhaseNoiseFloor, PhaseNoisePoint, StabilityJitter, StabilityPhaseNoise } from "./types";
-
-/**
- * An estimate is told from the floor only when it stands above it by more than chance allows: the
- * 1 − 10⁻⁴ quantile of a ν-dof chi-square mean (z = 3.72), so a clean record's ~40 curve points
- * show a false "measured" one in well under 1 % of records; never by less than 1 dB, the allowance
- * for the floor's model (white, split evenly between AM and PM).
- */
-const FLOOR_Z = 3.72;
-
-export function floorMargin(dof: number): number {
-  const nu = Math.max(1, dof);
-  return Math.max(10 ** 0.1, chiSquareQuantile(nu, FLOOR_Z) / nu);
-}
 
 const CURVE_BANDS_PER_DECADE = 10;
 

@@ -86,6 +86,9 @@ export interface AllanPoint {
   averages: number;
   /** Equivalent degrees of freedom behind the interval. */
   edf: number;
+  /** What the additive noise alone gives (white PM: √3·σ_x/τ), and whether adev stands clear of it. */
+  floorAdev: number;
+  atFloor: boolean;
 }
 
 export interface StabilityAllan {
