@@ -69,10 +69,19 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
     });
   });
   const failAfterDrain = (reject: (err: unknown) => void) => (err: unknown) => void drained.then(() => reject(malformed(err)));
+  // busboy emits "close" right after "error"; the rejection waits for the drain, so "close" must not resolve first.
+  let parseFailed = false;
+  parser.on("error", () => {
+    parseFailed = true;
+  });
 
   const file = new Promise<{ stream: Readable; filename: string; mimeType: string }>((resolve, reject) => {
     parser.on("file", (name, stream, info) => {
+      // busboy also raises a body's breaking off (e.g. "Unexpected end of form") on the file stream it is in:
+      // a stream only drained here needs a listener too, or that error is uncaught in the server. The parser's
+      // own error already answers the request with a 400.
       if (name !== fileField || fileSeen) {
+        stream.on("error", () => undefined);
         stream.resume();
         return;
       }
@@ -80,6 +89,7 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
       const filename = info.filename ?? "capture.csv";
       const badName = filenameProblem(filename);
       if (badName) {
+        stream.on("error", () => undefined);
         stream.resume();
         reject(new BadRequestError(badName, { [fileField]: [badName] }));
         return;
@@ -93,7 +103,7 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
       resolve({ stream: out, filename, mimeType: info.mimeType ?? "" });
     });
     parser.on("close", () => {
-      if (!fileSeen) reject(new BadRequestError(`No file in the field “${fileField}”.`, { [fileField]: ["missing"] }));
+      if (!fileSeen && !parseFailed) reject(new BadRequestError(`No file in the field “${fileField}”.`, { [fileField]: ["missing"] }));
     });
     parser.on("error", failAfterDrain(reject));
   });
@@ -105,6 +115,7 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
       fields[name] = value;
     });
     parser.on("close", () => {
+      if (parseFailed) return;
       if (nulField === null) resolve(fields);
       else reject(new BadRequestError(`Text cannot contain the NUL character (U+0000); the field “${nulField}” has one.`, { [nulField]: ["contains U+0000"] }));
     });

@@ -1,0 +1,55 @@
+import { describe, expect, it } from "vitest";
+import { readMultipartCapture } from "@/lib/logbook/multipart";
+
+// Found by the fuzz campaign (scripts/fuzz): a multipart body that breaks off inside a file part the parser only
+// drains (a second file, or a file under another field name) raised "Unexpected end of form" on that part's
+// stream, with no listener, as an uncaughtException in the server. It must end as the request's 400 alone.
+
+function truncatedBody(parts: string[]): Request {
+  const boundary = "----broken";
+  const text = parts.map((p) => `--${boundary}\r\n${p}`).join("\r\n");
+  // No closing boundary, and the last part stops mid-content.
+  return new Request("http://127.0.0.1/upload", { method: "POST", headers: { "content-type": `multipart/form-data; boundary=${boundary}` }, body: text });
+}
+
+async function settleWithoutUncaught(request: Request): Promise<{ uncaught: unknown[]; fileError: unknown; fieldsError: unknown }> {
+  const uncaught: unknown[] = [];
+  const onUncaught = (err: unknown) => uncaught.push(err);
+  process.on("uncaughtException", onUncaught);
+  try {
+    const parts = readMultipartCapture(request);
+    const [file, fields] = await Promise.allSettled([parts.file.then(async (f) => {
+      for await (const _ of f.stream) void _;
+    }), parts.fields]);
+    // Give any stray 'error' event a turn of the loop to surface.
+    await new Promise((r) => setTimeout(r, 50));
+    return { uncaught, fileError: file.status === "rejected" ? file.reason : null, fieldsError: fields.status === "rejected" ? fields.reason : null };
+  } finally {
+    process.off("uncaughtException", onUncaught);
+  }
+}
+
+describe("readMultipartCapture on a body that breaks off", () => {
+  it("inside a file under another field name: a 400 for the request, nothing uncaught", async () => {
+    const r = await settleWithoutUncaught(truncatedBody(['Content-Disposition: form-data; name="capture"; filename="a.csv"\r\nContent-Type: text/csv\r\n\r\ntime,ch1\n0,1\n1e-8']));
+    expect(r.uncaught).toEqual([]);
+    expect(String(r.fileError ?? r.fieldsError)).toMatch(/No file in the field|cannot be read/);
+  });
+
+  it("inside a second file after the capture: a 400, nothing uncaught", async () => {
+    const r = await settleWithoutUncaught(
+      truncatedBody([
+        'Content-Disposition: form-data; name="file"; filename="a.csv"\r\nContent-Type: text/csv\r\n\r\ntime,ch1\n0,1\n1e-8,0\n',
+        'Content-Disposition: form-data; name="file"; filename="b.csv"\r\nContent-Type: text/csv\r\n\r\ntime,ch1\n0,1',
+      ]),
+    );
+    expect(r.uncaught).toEqual([]);
+    expect(String(r.fileError ?? r.fieldsError)).toMatch(/cannot be read: Unexpected end of form/);
+  });
+
+  it("inside a file whose name is refused: the name's 400, nothing uncaught", async () => {
+    const r = await settleWithoutUncaught(truncatedBody([`Content-Disposition: form-data; name="file"; filename="${"n".repeat(300)}.csv"\r\nContent-Type: text/csv\r\n\r\ntime,ch1\n0,1`]));
+    expect(r.uncaught).toEqual([]);
+    expect(String(r.fileError)).toMatch(/characters long/);
+  });
+});
