@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { documented } from "../documented";
+import { stabilitySchema } from "./stability";
 
 // The engine's result object (lib/analysis AnalysisResult): the same object, with the same field names, that
 // `npm run -s analyze -- FILE --json` prints. SI units (Hz, V, s); dB where named; a dB figure that would be
@@ -108,6 +109,7 @@ export const analysisResultSchema = documented(
       cycles: z.number(),
       samplesPerCycle: z.number(),
       warnings: z.array(warningSchema),
+      stability: stabilitySchema.optional().describe("1.3: phase noise, jitter, period jitter, Allan deviation, start-up or ring-down; absent on results of older engines (not measured)."),
       twoChannel: twoChannelSchema.nullable(),
       metadata: z.record(z.string(), z.string()).describe("The capture file's preamble lines."),
       channels: z.array(z.string()).describe("Voltage channels the file holds."),
