@@ -151,7 +151,7 @@ export function windowedSpectrum(
  */
 export function prepareWindowedSpectrum(samples: number, options: SpectrumOptions = {}): void {
   const segmentLength = Math.min(Math.max(2, Math.floor(samples)), options.maxFftLength ?? DEFAULT_MAX_FFT_LENGTH);
-  fftPlan(nextPowerOfTwo(segmentLength));
+  fftPlan(nextPowerOfTwo(segmentLength), true, true);
   const short = new Float64Array(1 << 12);
   for (let i = 0; i < short.length; i++) short[i] = Math.cos(0.3 * i);
   for (let round = 0; round < 8; round++) windowedSpectrum(short, 1);
