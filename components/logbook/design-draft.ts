@@ -23,6 +23,13 @@ export interface SpecDraft {
   maxHarmonicDbc: string;
   minFundamentalVpk: string;
   maxDriftPpm: string;
+  /** Stability limits: rms jitter and start-up time as times ("50 ps", "2 ms"), the offset as a frequency. */
+  maxRmsJitterS: string;
+  maxPushingPpmPerV: string;
+  maxTempcoPpmPerK: string;
+  phaseNoiseOffsetHz: string;
+  maxPhaseNoiseDbcPerHz: string;
+  maxStartUpS: string;
 }
 
 export interface DesignDraft {
@@ -43,6 +50,12 @@ export const EMPTY_SPEC: SpecDraft = {
   maxHarmonicDbc: "",
   minFundamentalVpk: "",
   maxDriftPpm: "",
+  maxRmsJitterS: "",
+  maxPushingPpmPerV: "",
+  maxTempcoPpmPerK: "",
+  phaseNoiseOffsetHz: "",
+  maxPhaseNoiseDbcPerHz: "",
+  maxStartUpS: "",
 };
 
 /** A blank draft of a topology: every part the topology takes, empty. */
@@ -99,6 +112,12 @@ export function draftFromRevision(name: string, topology: Topology, revision: Pi
     maxHarmonicDbc: plain(s.maxHarmonicDbc),
     minFundamentalVpk: plain(s.minFundamentalVpk),
     maxDriftPpm: plain(s.maxDriftPpm),
+    maxRmsJitterS: typeof s.maxRmsJitterS === "number" ? formatEngineering(s.maxRmsJitterS, "s", 6, { trimZeros: true }) : "",
+    maxPushingPpmPerV: plain(s.maxPushingPpmPerV),
+    maxTempcoPpmPerK: plain(s.maxTempcoPpmPerK),
+    phaseNoiseOffsetHz: typeof s.phaseNoiseOffsetHz === "number" ? formatEngineering(s.phaseNoiseOffsetHz, "Hz", 6, { trimZeros: true }) : "",
+    maxPhaseNoiseDbcPerHz: plain(s.maxPhaseNoiseDbcPerHz),
+    maxStartUpS: typeof s.maxStartUpS === "number" ? formatEngineering(s.maxStartUpS, "s", 6, { trimZeros: true }) : "",
   };
   return draft;
 }

@@ -36,6 +36,12 @@ export function designFieldLabel(path: string): string {
     "spec.maxHarmonicDbc": "Maximum single harmonic",
     "spec.minFundamentalVpk": "Minimum amplitude",
     "spec.maxDriftPpm": "Maximum drift",
+    "spec.maxRmsJitterS": "Maximum rms jitter",
+    "spec.maxPushingPpmPerV": "Maximum pushing",
+    "spec.maxTempcoPpmPerK": "Maximum temperature coefficient",
+    "spec.phaseNoiseOffsetHz": "Phase-noise offset",
+    "spec.maxPhaseNoiseDbcPerHz": "Maximum phase noise",
+    "spec.maxStartUpS": "Longest start-up time",
   };
   return names[path] ?? path;
 }

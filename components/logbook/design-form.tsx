@@ -313,6 +313,8 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
   );
 }
 
+const TEXT_SPEC_KEYS: ReadonlyArray<keyof SpecDraft> = ["targetHz", "maxRmsJitterS", "maxStartUpS", "phaseNoiseOffsetHz"];
+
 function SpecFields({
   spec,
   setSpec,
@@ -333,7 +335,8 @@ function SpecFields({
           id={id}
           name={path}
           value={value}
-          inputMode={key === "targetHz" ? "text" : "decimal"}
+          // Fields written with a prefix or unit ("412.3k", "50 ps") need the full keyboard on a phone.
+          inputMode={TEXT_SPEC_KEYS.includes(key) ? "text" : "decimal"}
           autoComplete="off"
           placeholder={opts.placeholder}
           onChange={(e) => setSpec({ [key]: e.target.value } as Partial<SpecDraft>)}
@@ -385,6 +388,21 @@ function SpecFields({
           {text("minFundamentalVpk", "Minimum amplitude (V peak)", { placeholder: "e.g. 0.5" })}
           {text("maxDriftPpm", "Maximum drift within one record (ppm)", { placeholder: "e.g. 50" })}
         </div>
+        <fieldset className="space-y-3">
+          <legend className="text-sm font-semibold text-ink">Stability (optional)</legend>
+          <p className="text-xs text-ink-soft">
+            Jitter, phase noise and start-up are judged on each capture; pushing and the temperature coefficient on the build&apos;s runs together. A figure a capture
+            cannot measure is &quot;cannot judge&quot;, never a pass.
+          </p>
+          <div className="grid gap-4 sm:grid-cols-2">
+            {text("maxRmsJitterS", "Maximum rms jitter", { hint: "A time: 50 ps, 1 ns.", placeholder: "e.g. 50 ps" })}
+            {text("maxStartUpS", "Longest start-up time", { hint: "First visible oscillation to 90 % of the settled amplitude.", placeholder: "e.g. 2 ms" })}
+            {text("phaseNoiseOffsetHz", "Phase-noise offset", { hint: "Judged only where a capture has an estimate at this offset.", placeholder: "e.g. 10k" })}
+            {text("maxPhaseNoiseDbcPerHz", "Maximum phase noise at that offset (dBc/Hz)", { placeholder: "e.g. -100" })}
+            {text("maxPushingPpmPerV", "Maximum pushing (ppm/V, as a size)", { placeholder: "e.g. 20" })}
+            {text("maxTempcoPpmPerK", "Maximum temperature coefficient (ppm/K, as a size)", { placeholder: "e.g. 50" })}
+          </div>
+        </fieldset>
         <SpecPresetPicker spec={specOfText(spec)} onApply={(preset) => setSpec(applyPresetToText(spec, preset.id))} />
       </CardBody>
     </Card>

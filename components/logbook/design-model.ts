@@ -36,6 +36,13 @@ export function specPhrases(spec: DesignSpec | null | undefined): string[] {
   if (typeof spec.maxHarmonicDbc === "number") out.push(`each harmonic ≤ ${formatDecibels(spec.maxHarmonicDbc, "dBc")}`);
   if (typeof spec.minFundamentalVpk === "number") out.push(`amplitude ≥ ${formatQuantity(spec.minFundamentalVpk, "V", 3, { trimZeros: true })} peak`);
   if (typeof spec.maxDriftPpm === "number") out.push(`in-record drift ≤ ${spec.maxDriftPpm} ppm`);
+  if (typeof spec.maxRmsJitterS === "number") out.push(`rms jitter ≤ ${formatQuantity(spec.maxRmsJitterS, "s", 3, { trimZeros: true })}`);
+  if (typeof spec.maxPhaseNoiseDbcPerHz === "number" && typeof spec.phaseNoiseOffsetHz === "number") {
+    out.push(`phase noise ≤ ${formatDecibels(spec.maxPhaseNoiseDbcPerHz, "dBc/Hz")} at ${formatQuantity(spec.phaseNoiseOffsetHz, "Hz", 3, { trimZeros: true })}`);
+  }
+  if (typeof spec.maxStartUpS === "number") out.push(`start-up ≤ ${formatQuantity(spec.maxStartUpS, "s", 3, { trimZeros: true })}`);
+  if (typeof spec.maxPushingPpmPerV === "number") out.push(`|pushing| ≤ ${spec.maxPushingPpmPerV} ppm/V`);
+  if (typeof spec.maxTempcoPpmPerK === "number") out.push(`|tempco| ≤ ${spec.maxTempcoPpmPerK} ppm/K`);
   return out;
 }
 

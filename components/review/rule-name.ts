@@ -1,10 +1,15 @@
-import { MINUS } from "@/lib/format/numbers";
+import { formatQuantity, MINUS } from "@/lib/format/numbers";
 
 const NAMES: Record<string, string> = {
   frequency: "Frequency",
   thd: "THD",
   amplitude: "Fundamental amplitude",
   "in-record-drift": "Drift within the record",
+  "rms-jitter": "rms jitter",
+  "phase-noise": "Phase noise",
+  "start-up": "Start-up time",
+  pushing: "Pushing (across runs)",
+  tempco: "Temperature coefficient (across runs)",
 };
 
 /**
@@ -34,6 +39,8 @@ function digitsFor(unit: string): number {
  */
 export function flagFigure(value: number | null, unit: string, margin = false): string {
   if (value === null || !Number.isFinite(value)) return "\u2014";
+  // Jitter and start-up times span picoseconds to milliseconds: engineering notation, not fixed decimals.
+  if (unit === "s") return formatQuantity(value, "s", 3, { signed: margin });
   const shownUnit = margin && unit === "dBc" ? "dB" : unit;
   const text = Math.abs(value).toFixed(digitsFor(unit));
   const sign = value < 0 && Number(text) !== 0 ? MINUS : margin && value > 0 ? "+" : "";

@@ -10,7 +10,17 @@ export interface SpecTextFields {
   maxHarmonicDbc: string;
   minFundamentalVpk: string;
   maxDriftPpm: string;
+  /** The stability limits, when the form has them (seconds and ppm as plain numbers). */
+  maxRmsJitterS?: string;
+  maxPushingPpmPerV?: string;
+  maxTempcoPpmPerK?: string;
+  phaseNoiseOffsetHz?: string;
+  maxPhaseNoiseDbcPerHz?: string;
+  maxStartUpS?: string;
 }
+
+/** The stability limits a preset may write, as typed text. */
+const STABILITY_KEYS = ["maxRmsJitterS", "maxPushingPpmPerV", "maxTempcoPpmPerK", "phaseNoiseOffsetHz", "maxPhaseNoiseDbcPerHz", "maxStartUpS"] as const;
 
 function plainNumber(text: string): number | null {
   const t = text.trim().replace(/\u2212/g, "-");
@@ -23,7 +33,13 @@ function plainNumber(text: string): number | null {
  * no preset sets it.
  */
 export function specOfText(fields: SpecTextFields): DesignSpec {
+  const stability: DesignSpec = {};
+  for (const key of STABILITY_KEYS) {
+    const text = fields[key];
+    if (text !== undefined) stability[key] = plainNumber(text);
+  }
   return {
+    ...stability,
     toleranceValue: plainNumber(fields.toleranceValue),
     toleranceUnit: fields.toleranceUnit,
     maxThdPercent: plainNumber(fields.maxThdPercent),
@@ -49,6 +65,10 @@ export function applyPresetToText<T extends SpecTextFields>(fields: T, presetId:
   for (const key of ["toleranceValue", "maxThdPercent", "maxHarmonicDbc", "minFundamentalVpk", "maxDriftPpm"] as const) {
     const value = after[key];
     if (value !== before[key] && typeof value === "number") next[key] = String(value);
+  }
+  for (const key of STABILITY_KEYS) {
+    const value = after[key];
+    if (key in fields && value !== before[key] && typeof value === "number") next[key] = String(value);
   }
   if (after.toleranceUnit && after.toleranceUnit !== before.toleranceUnit) next.toleranceUnit = after.toleranceUnit;
   return next;

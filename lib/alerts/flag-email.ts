@@ -26,6 +26,8 @@ export interface FlagEmailInput {
 export function ruleLabel(rule: string): string {
   if (rule === "thd") return "THD";
   if (rule === "in-record-drift") return "in-record drift";
+  if (rule === "start-up") return "start-up time";
+  if (rule === "tempco") return "temperature coefficient";
   const harmonic = /^harmonic-(\d+)$/.exec(rule);
   if (harmonic) return `harmonic ${harmonic[1]}`;
   if (rule.startsWith("warning-")) return rule.slice("warning-".length).replace(/-/g, " ");

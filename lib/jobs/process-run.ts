@@ -4,7 +4,9 @@ import { replaceRunFlags } from "@/db/queries/flags";
 import { claimRun, completeRun, failRun, getRun, type Run } from "@/db/queries/runs";
 import type { AnalysisResult } from "@/lib/analysis";
 import { impliedExtraCapacitanceF } from "@/lib/oscillator";
+import { buildSensitivityForSpec } from "@/lib/logbook/sensitivity";
 import { evaluateSpec } from "@/lib/spec/evaluate";
+import { needsBuildSensitivity } from "@/lib/spec/stability-rules";
 import type { AnalysisTaskInput, AnalysisTaskOutput } from "./analysis-task";
 import { retryWhileDatabaseDown } from "./database-retry";
 
@@ -98,7 +100,23 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
   const { result, plot } = output;
   const thdPercent = result.thdPercent !== null && Number.isFinite(result.thdPercent) ? result.thdPercent : null;
   const inRecordDriftPpm = result.inRecordDrift?.ppm ?? null;
-  const evaluation = evaluateSpec(run.snapshot.spec ?? {}, {
+  const spec = run.snapshot.spec ?? {};
+  // Pushing and tempco rules judge the build across its runs, this one included (read before the final write).
+  const buildSensitivity = needsBuildSensitivity(spec)
+    ? await buildSensitivityForSpec(run.buildId, timebasePpm, {
+        id: run.id,
+        createdAt: run.createdAt,
+        originalFilename: run.originalFilename,
+        measuredHz: result.frequencyHz,
+        frequencyUncertaintyHz: result.frequencyUncertaintyHz,
+        fundamentalVpk: result.fundamentalVpk,
+        supplyV: run.supplyV,
+        temperatureC: run.temperatureC,
+        warningCodes: result.warnings.map((w) => w.code),
+        design: { topology: run.snapshot.topology, parts: run.snapshot.parts, ...(run.snapshot.extraCapacitanceF ? { extraCapacitanceF: run.snapshot.extraCapacitanceF } : {}), ...(run.snapshot.windings ? { windings: run.snapshot.windings } : {}) },
+      })
+    : null;
+  const evaluation = evaluateSpec(spec, {
     timebasePpm,
     frequencyHz: result.frequencyHz,
     thdPercent,
@@ -107,6 +125,8 @@ export async function processRun(runId: string, options: ProcessRunOptions): Pro
     fundamentalVpk: result.fundamentalVpk,
     inRecordDriftPpm,
     warnings: result.warnings,
+    stability: result.stability ?? null,
+    buildSensitivity,
   });
   const derived = derivedColumns(run, result);
   const stored = await storeFinal(runId, options, () => db().transaction(async (trx) => {

@@ -1,4 +1,5 @@
 import { formatEngineering } from "@/lib/oscillator/units";
+import { buildSensitivityChecks, hasStabilityLimit, jitterCheck, phaseNoiseCheck, startUpCheck } from "./stability-rules";
 import type { CheckOutcome, DesignSpec, SpecCheck, SpecEvaluation, SpecMeasurements } from "./types";
 
 /**
@@ -258,7 +259,11 @@ function withoutTone(check: SpecCheck): SpecCheck {
  *
  * @param spec - the design's spec at the run's revision; unset limits are skipped.
  * @param measurements - the engine's numbers for the capture (frequency in Hz, THD in %, levels in dBc, amplitude in V peak).
- * @returns the checks in a fixed order (frequency, THD, harmonics by order, amplitude, drift, warnings) and the verdict
+ * Stability rules (rms jitter, phase noise at an offset, start-up time) read `measurements.stability`; the build-level
+ * rules (pushing, temperature coefficient) read `measurements.buildSensitivity`. Either missing is "cannot judge".
+ *
+ * @returns the checks in a fixed order (frequency, THD, harmonics by order, amplitude, drift, jitter, phase noise,
+ *   start-up, pushing, tempco, warnings) and the verdict
  *   from {@link verdictOf}.
  * @throws RangeError when the spec's target frequency is not above 0 Hz.
  */
@@ -275,6 +280,10 @@ export function evaluateSpec(spec: DesignSpec, measurements: SpecMeasurements): 
   checks.push(...harmonicChecks(spec, measurements, measurements.thd?.neededSampleRateHz ?? null));
   push(amplitudeCheck(spec, measurements));
   push(driftCheck(spec, measurements));
+  push(jitterCheck(spec, measurements));
+  push(phaseNoiseCheck(spec, measurements));
+  push(startUpCheck(spec, measurements));
+  checks.push(...buildSensitivityChecks(spec, measurements));
   checks.push(...warningChecks(measurements));
   const toneMissing = measurements.warnings.some((w) => UNJUDGEABLE_WARNINGS.includes(w.code));
   const final = toneMissing ? checks.map(withoutTone) : checks;
@@ -297,6 +306,7 @@ export function hasAnyLimit(spec: DesignSpec): boolean {
     isSet(spec.maxThdPercent) ||
     isSet(spec.maxHarmonicDbc) ||
     isSet(spec.minFundamentalVpk) ||
-    isSet(spec.maxDriftPpm)
+    isSet(spec.maxDriftPpm) ||
+    hasStabilityLimit(spec)
   );
 }

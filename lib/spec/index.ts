@@ -1,2 +1,3 @@
 export { evaluateSpec, hasAnyLimit, FAILING_WARNINGS, UNJUDGEABLE_WARNINGS, verdictOf } from "./evaluate";
-export type { CheckOutcome, DesignSpec, RunVerdict, SpecCheck, SpecEvaluation, SpecMeasurements, ToleranceUnit } from "./types";
+export { needsBuildSensitivity } from "./stability-rules";
+export type { BuildSensitivityMeasurements, CheckOutcome, DesignSpec, RunVerdict, SpecCheck, SpecEvaluation, SpecMeasurements, StabilityMeasurements, ToleranceUnit } from "./types";

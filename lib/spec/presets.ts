@@ -14,10 +14,30 @@ export type PresetBasis = "law" | "practice";
  * What the preset limits: the level of every single harmonic in dBc (spec.maxHarmonicDbc), the total harmonic
  * distortion in % (spec.maxThdPercent), or the frequency window around the target (spec.toleranceValue).
  */
-export type PresetLimitKind = "per-harmonic-dbc" | "thd-percent" | "frequency-tolerance";
+export type PresetLimitKind =
+  | "per-harmonic-dbc"
+  | "thd-percent"
+  | "frequency-tolerance"
+  | "rms-jitter-s"
+  | "phase-noise-dbc-hz"
+  | "start-up-s"
+  | "pushing-ppm-per-v"
+  | "tempco-ppm-per-k";
 
 /** The spec fields a preset may set; the target frequency always stays the engineer's. */
-export type PresetSpec = Pick<DesignSpec, "maxHarmonicDbc" | "maxThdPercent" | "toleranceValue" | "toleranceUnit">;
+export type PresetSpec = Pick<
+  DesignSpec,
+  | "maxHarmonicDbc"
+  | "maxThdPercent"
+  | "toleranceValue"
+  | "toleranceUnit"
+  | "maxRmsJitterS"
+  | "phaseNoiseOffsetHz"
+  | "maxPhaseNoiseDbcPerHz"
+  | "maxStartUpS"
+  | "maxPushingPpmPerV"
+  | "maxTempcoPpmPerK"
+>;
 
 export interface SpecPreset {
   /** Stable id for forms and the API (kebab-case). */
@@ -123,6 +143,62 @@ export const SPEC_PRESETS: readonly SpecPreset[] = Object.freeze([
     scope: null,
     limitKind: "frequency-tolerance",
     spec: { toleranceValue: 0.5, toleranceUnit: "percent" },
+  },
+  // Stability examples. None is a standard's figure: each is a round number from bench habit, to adapt.
+  {
+    id: "bench-clock-jitter",
+    label: "Bench clock jitter",
+    summary: "rms jitter of each capture at most 1 ns",
+    example: true,
+    basis: "practice",
+    basisNote: "common practice for a free-running LC clock that times other bench equipment (a value from memory, not from a standard)",
+    scope: null,
+    limitKind: "rms-jitter-s",
+    spec: { maxRmsJitterS: 1e-9 },
+  },
+  {
+    id: "lc-vfo-phase-noise",
+    label: "LC VFO phase noise",
+    summary: "phase noise at most −100 dBc/Hz at 10 kHz from the carrier",
+    example: true,
+    basis: "practice",
+    basisNote: "common practice for a general-purpose discrete LC VFO (a value from memory, not from a standard)",
+    scope: "judged only where a capture has an estimate at 10 kHz (a record of at least a few tenths of a millisecond)",
+    limitKind: "phase-noise-dbc-hz",
+    spec: { phaseNoiseOffsetHz: 10_000, maxPhaseNoiseDbcPerHz: -100 },
+  },
+  {
+    id: "start-up-10-ms",
+    label: "Starts within 10 ms",
+    summary: "start-up to 90 % of the settled amplitude within 10 ms",
+    example: true,
+    basis: "practice",
+    basisNote: "common practice for a clock that must run before the circuit it drives leaves reset (a value from memory)",
+    scope: "judged only on captures that show a start-up (taken from power-on)",
+    limitKind: "start-up-s",
+    spec: { maxStartUpS: 0.01 },
+  },
+  {
+    id: "regulated-supply-pushing",
+    label: "Pushing on a regulated supply",
+    summary: "frequency moves at most 50 ppm per volt of supply",
+    example: true,
+    basis: "practice",
+    basisNote: "common practice for a discrete LC stage whose transistor capacitances move with bias (a value from memory, not from a standard)",
+    scope: "judged across the build's runs at several supply voltages",
+    limitKind: "pushing-ppm-per-v",
+    spec: { maxPushingPpmPerV: 50 },
+  },
+  {
+    id: "c0g-tank-tempco",
+    label: "C0G tank tempco",
+    summary: "temperature coefficient at most 50 ppm/K in size",
+    example: true,
+    basis: "practice",
+    basisNote: "common practice for a tank of C0G capacitors (0 ± 30 ppm/K) and a stable inductor (a value from memory)",
+    scope: "judged across the build's runs at several temperatures",
+    limitKind: "tempco-ppm-per-k",
+    spec: { maxTempcoPpmPerK: 50 },
   },
 ] satisfies SpecPreset[]);
 

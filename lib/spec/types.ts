@@ -20,6 +20,37 @@ export interface DesignSpec {
   minFundamentalVpk?: number | null;
   /** Largest allowed frequency change within one record, ppm (absolute). */
   maxDriftPpm?: number | null;
+  /** Largest allowed rms phase jitter of one capture, s (over the band the record supports). */
+  maxRmsJitterS?: number | null;
+  /** Largest allowed |pushing| of the build as it stands, ppm/V (a build-level rule, across runs). */
+  maxPushingPpmPerV?: number | null;
+  /** Largest allowed |temperature coefficient| of the build as it stands, ppm/K (a build-level rule, across runs). */
+  maxTempcoPpmPerK?: number | null;
+  /** The offset from the carrier at which phase noise is judged, Hz; the limit needs it. */
+  phaseNoiseOffsetHz?: number | null;
+  /** Highest allowed single-sideband phase noise at {@link phaseNoiseOffsetHz}, dBc/Hz (e.g. −100). */
+  maxPhaseNoiseDbcPerHz?: number | null;
+  /** Longest allowed start-up time (first visible oscillation to 90 % of the settled amplitude), s. */
+  maxStartUpS?: number | null;
+}
+
+/**
+ * The per-capture stability figures the rules read (a narrow view of the engine's result.stability); absent on
+ * results from before they existed, which every stability rule then reads as "not measured".
+ */
+export interface StabilityMeasurements {
+  jitter?: { rmsJitterS: number | null; atFloor: boolean; bandLowHz: number | null; bandHighHz: number | null; reason: string | null } | null;
+  phaseNoise?: { points: ReadonlyArray<{ offsetHz: number; dbcPerHz: number; floorDbcPerHz: number; atFloor: boolean }>; reason: string | null } | null;
+  envelope?: { kind: "steady" | "start-up" | "ring-down" | "unknown"; startUpS: number | null; reason: string | null } | null;
+}
+
+/** One across-runs slope as the build-level rules read it (lib/sensitivity's figure for the build as it stands). */
+export type BuildSlopeMeasurement = { measured: true; ppm: number; ppmSigma: number; runs: number } | { measured: false; reason: string };
+
+/** The build-level figures: pushing and temperature coefficient of the build's current state. */
+export interface BuildSensitivityMeasurements {
+  pushing: BuildSlopeMeasurement;
+  tempco: BuildSlopeMeasurement;
 }
 
 /** What the evaluator needs from one analysed capture; a narrow view so the rules do not depend on the engine's shape. */
@@ -51,6 +82,10 @@ export interface SpecMeasurements {
   /** Frequency change across the record, ppm (signed); null when the engine could not tell. */
   inRecordDriftPpm: number | null;
   warnings: ReadonlyArray<{ code: string; message: string }>;
+  /** The capture's stability figures (result.stability); absent or null when the engine gave none. */
+  stability?: StabilityMeasurements | null;
+  /** The build's across-runs figures with this run included; absent or null when they were not computed. */
+  buildSensitivity?: BuildSensitivityMeasurements | null;
 }
 
 /** A rule's outcome: inside its limit, outside it, or not decidable on this capture. */
@@ -58,7 +93,7 @@ export type CheckOutcome = "pass" | "fail" | "cannot-judge";
 
 /** One evaluated rule. `margin` is positive inside the limit and negative outside, in `unit`. */
 export interface SpecCheck {
-  /** Stable rule id: frequency, thd, harmonic-<n>, amplitude, in-record-drift, warning-<code>. */
+  /** Stable rule id: frequency, thd, harmonic-<n>, amplitude, in-record-drift, rms-jitter, phase-noise, start-up, pushing, tempco, warning-<code>. */
   rule: string;
   /** True only for outcome "pass". */
   passed: boolean;
@@ -69,7 +104,7 @@ export interface SpecCheck {
   measured: number | null;
   limit: number | null;
   margin: number | null;
-  /** Unit of measured, limit and margin: "%", "ppm", "dBc", "V", or "" for a warning. */
+  /** Unit of measured, limit and margin: "%", "ppm", "dBc", "V", "s", "dBc/Hz", "ppm/V", "ppm/K", or "" for a warning. */
   unit: string;
   /** One plain sentence saying what was found against what was allowed. */
   message: string;

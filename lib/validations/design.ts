@@ -80,7 +80,34 @@ function addDesignProblems(problems: string[], ctx: z.RefinementCtx): void {
   }
 }
 
-/** The spec as entered. Each limit is optional; a tolerance needs a target. */
+/**
+ * A time limit as people write it ("50 ps", "50p", "2 ms", "1e-9") or seconds as a number (API); blank is unset.
+ * lib/oscillator's parser reads the prefix; the trailing "s" is dropped first.
+ */
+function optionalSeconds(label: string) {
+  return z.preprocess(
+    (v) => (isBlank(v) ? undefined : v),
+    z
+      .union([z.number(), z.string()])
+      .transform((value, ctx) => {
+        let seconds: number;
+        try {
+          seconds = typeof value === "number" ? value : parseValue(value.trim().replace(/\s*s(ec)?$/i, ""));
+        } catch {
+          ctx.addIssue({ code: "custom", message: `${label} is a time such as 50 ps, 2 ms or 1e-9 (seconds).` });
+          return z.NEVER;
+        }
+        if (!Number.isFinite(seconds) || seconds <= 0) {
+          ctx.addIssue({ code: "custom", message: `${label} must be above 0 s.` });
+          return z.NEVER;
+        }
+        return seconds;
+      })
+      .optional(),
+  );
+}
+
+/** The spec as entered. Each limit is optional; a tolerance needs a target; a phase-noise limit needs its offset. */
 export const designSpecSchema = z
   .object({
     targetHz: optionalEngineeringValue("Hz", "The target frequency"),
@@ -90,8 +117,23 @@ export const designSpecSchema = z
     maxHarmonicDbc: optionalNumberField("The harmonic limit (dBc, 0 or below, e.g. −40)", { max: 0 }),
     minFundamentalVpk: optionalNumberField("The minimum amplitude (V peak)", { min: 0 }),
     maxDriftPpm: optionalNumberField("The in-record drift limit (ppm)", { min: 0 }),
+    maxRmsJitterS: optionalSeconds("The rms jitter limit"),
+    maxPushingPpmPerV: optionalNumberField("The pushing limit (ppm/V)", { min: 0 }),
+    maxTempcoPpmPerK: optionalNumberField("The temperature coefficient limit (ppm/K, as a size)", { min: 0 }),
+    phaseNoiseOffsetHz: optionalEngineeringValue("Hz", "The phase-noise offset"),
+    maxPhaseNoiseDbcPerHz: optionalNumberField("The phase-noise limit (dBc/Hz, below 0, e.g. −100)", { max: 0 }),
+    maxStartUpS: optionalSeconds("The start-up time limit"),
   })
   .superRefine((s, ctx) => {
+    if (s.maxPhaseNoiseDbcPerHz !== undefined && s.phaseNoiseOffsetHz === undefined) {
+      ctx.addIssue({ code: "custom", path: ["phaseNoiseOffsetHz"], message: "A phase-noise limit needs the offset it applies at (e.g. 10k)." });
+    }
+    if (s.phaseNoiseOffsetHz !== undefined && s.maxPhaseNoiseDbcPerHz === undefined) {
+      ctx.addIssue({ code: "custom", path: ["maxPhaseNoiseDbcPerHz"], message: "An offset needs the phase-noise limit that applies there (e.g. −100 dBc/Hz)." });
+    }
+    if (s.phaseNoiseOffsetHz !== undefined && !(s.phaseNoiseOffsetHz > 0)) {
+      ctx.addIssue({ code: "custom", path: ["phaseNoiseOffsetHz"], message: "The phase-noise offset must be above 0 Hz." });
+    }
     if (s.toleranceValue !== undefined && s.targetHz === undefined) {
       ctx.addIssue({ code: "custom", path: ["targetHz"], message: "A frequency tolerance needs a target frequency." });
     }
@@ -106,6 +148,12 @@ export const designSpecSchema = z
       maxHarmonicDbc: s.maxHarmonicDbc ?? null,
       minFundamentalVpk: s.minFundamentalVpk ?? null,
       maxDriftPpm: s.maxDriftPpm ?? null,
+      maxRmsJitterS: s.maxRmsJitterS ?? null,
+      maxPushingPpmPerV: s.maxPushingPpmPerV ?? null,
+      maxTempcoPpmPerK: s.maxTempcoPpmPerK ?? null,
+      phaseNoiseOffsetHz: s.phaseNoiseOffsetHz ?? null,
+      maxPhaseNoiseDbcPerHz: s.maxPhaseNoiseDbcPerHz ?? null,
+      maxStartUpS: s.maxStartUpS ?? null,
     }),
   );
 

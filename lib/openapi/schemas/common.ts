@@ -39,6 +39,12 @@ export const designSpecSchema = documented(
     maxHarmonicDbc: z.number().nullable().optional().describe("Highest allowed level of any harmonic, dBc (negative)."),
     minFundamentalVpk: z.number().nullable().optional().describe("Smallest allowed fundamental amplitude, V peak."),
     maxDriftPpm: z.number().nullable().optional().describe("Largest allowed frequency change within one record, ppm."),
+    maxRmsJitterS: z.number().nullable().optional().describe("Largest allowed rms phase jitter of a capture, s (forms also take \"50 ps\")."),
+    maxPushingPpmPerV: z.number().nullable().optional().describe("Largest allowed |pushing| of the build as it stands, ppm/V (judged across runs)."),
+    maxTempcoPpmPerK: z.number().nullable().optional().describe("Largest allowed |temperature coefficient| of the build as it stands, ppm/K (judged across runs)."),
+    phaseNoiseOffsetHz: z.number().nullable().optional().describe("Offset from the carrier where phase noise is judged, Hz; set together with maxPhaseNoiseDbcPerHz."),
+    maxPhaseNoiseDbcPerHz: z.number().nullable().optional().describe("Highest allowed phase noise at phaseNoiseOffsetHz, dBc/Hz; judged only from a measured point there."),
+    maxStartUpS: z.number().nullable().optional().describe("Longest allowed start-up time (first visible oscillation to 90 % of the settled amplitude), s."),
   }),
   { refId: "Spec", description: "A design's spec; a limit left null is not checked." },
 );

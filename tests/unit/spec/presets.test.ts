@@ -26,7 +26,7 @@ describe("SPEC_PRESETS", () => {
       expect(preset.example).toBe(true);
       expect(["law", "practice"]).toContain(preset.basis);
       expect(preset.basisNote.length).toBeGreaterThan(0);
-      expect(["per-harmonic-dbc", "thd-percent", "frequency-tolerance"]).toContain(preset.limitKind);
+      expect(["per-harmonic-dbc", "thd-percent", "frequency-tolerance", "rms-jitter-s", "phase-noise-dbc-hz", "start-up-s", "pushing-ppm-per-v", "tempco-ppm-per-k"]).toContain(preset.limitKind);
     }
   });
 
