@@ -24,6 +24,7 @@ import { HarmonicsTable, SpursTable } from "./run-harmonics";
 import { runFigures, specMeasurements } from "./run-results";
 import type { RunContext, RunData, RunPlot } from "./run-types";
 import { SpecVerdictList } from "./spec-verdict-list";
+import { StabilityCard } from "./stability/stability-card";
 import { TrustWarnings } from "./trust-warnings";
 
 export interface RunViewProps {
@@ -243,6 +244,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
             <HarmonicsTable figures={figures} limitDbc={limitDbc} />
             <SpursTable spurs={figures.spurs} />
           </div>
+          <StabilityCard results={run.results} />
         </>
       ) : null}
 
