@@ -31,7 +31,7 @@ export function BuildComparisonTable({ builds }: BuildComparisonTableProps) {
     </Tr>
   );
   return (
-    <Table caption="Builds compared: the newest analysed run of each">
+    <Table caption="Builds compared: the chosen run of each (by default the newest not withdrawn)">
       <thead>
         <tr>
           <Th>Figure</Th>
@@ -56,12 +56,27 @@ export function BuildComparisonTable({ builds }: BuildComparisonTableProps) {
           false,
         )}
         {row(
-          "Latest run",
+          "Compared run",
           (b) =>
             b.latestRun ? (
-              <Link className={link} href={`/runs/${b.latestRun.id}`}>
-                {b.latestRun.originalFilename}
-              </Link>
+              <>
+                <Link className={link} href={`/runs/${b.latestRun.id}`}>
+                  {b.latestRun.originalFilename}
+                </Link>
+                <span className="block text-[11px] text-ink-faint">
+                  {b.runChosen ? "chosen" : "newest not withdrawn"}
+                  {b.latestRun.withdrawnAt ? (
+                    <>
+                      {" · "}
+                      <span className="font-medium text-ink-soft" data-withdrawn="true">
+                        <span aria-hidden="true">⊘ </span>withdrawn
+                      </span>
+                    </>
+                  ) : null}
+                </span>
+              </>
+            ) : b.runChoices.length > 0 ? (
+              "every analysed run is withdrawn"
             ) : (
               "no analysed run yet"
             ),
@@ -107,6 +122,42 @@ export function BuildComparisonTable({ builds }: BuildComparisonTableProps) {
             })}
           </Tr>
         ))}
+        {row("rms jitter", (b) => <Stability b={b} value={(s) => (s.rmsJitterS !== null ? formatQuantity(s.rmsJitterS, "s", 3) : null)} why={(s) => s.jitterReason} />)}
+        {row("Phase noise", (b) => (
+          <Stability
+            b={b}
+            value={(s) =>
+              s.phaseNoise.length > 0 ? (
+                <ul>
+                  {s.phaseNoise.slice(0, 5).map((p) => (
+                    <li key={p.offsetHz} className="whitespace-nowrap">
+                      {formatQuantity(p.offsetHz, "Hz", 3, { trimZeros: true })}: {p.atFloor ? "≤ " : ""}
+                      {formatDecibels(p.dbcPerHz, "dBc/Hz")}
+                    </li>
+                  ))}
+                </ul>
+              ) : null
+            }
+            why={() => "not measured on this capture"}
+          />
+        ))}
+        {row("Allan deviation", (b) => (
+          <Stability
+            b={b}
+            value={(s) =>
+              s.allan.length > 0 ? (
+                <ul>
+                  {s.allan.slice(0, 4).map((p) => (
+                    <li key={p.tauS} className="whitespace-nowrap">
+                      τ {formatQuantity(p.tauS, "s", 3, { trimZeros: true })}: {p.adev.toExponential(2).replace("-", "−")}
+                    </li>
+                  ))}
+                </ul>
+              ) : null
+            }
+            why={() => "not measured on this capture"}
+          />
+        ))}
         {row(
           "Trust warnings",
           (b) => (b.latestRun ? (b.latestRun.warningCodes.length > 0 ? `⚠ ${b.latestRun.warningCodes.join(", ")}` : "none") : DASH),
@@ -114,5 +165,27 @@ export function BuildComparisonTable({ builds }: BuildComparisonTableProps) {
         )}
       </tbody>
     </Table>
+  );
+}
+
+/** One stability figure of a compared run, or "not measured" with the reason (never 0). */
+function Stability({
+  b,
+  value,
+  why,
+}: {
+  b: ComparedBuild;
+  value: (s: ComparedBuild["stability"]) => React.ReactNode | null;
+  why: (s: ComparedBuild["stability"]) => string | null;
+}) {
+  if (!b.latestRun) return DASH;
+  const s = b.stability;
+  const shown = s.measured ? value(s) : null;
+  if (shown !== null) return shown;
+  return (
+    <span>
+      not measured
+      <span className="block max-w-[14rem] text-[11px] text-ink-faint">{s.measured ? why(s) : s.reason}</span>
+    </span>
   );
 }

@@ -73,6 +73,7 @@ with trusted as (
   join builds b on b.id = r.build_id
   join designs d on d.id = b.design_id
   where r.status = 'done'
+    and r.withdrawn_at is null
     and r.implied_extra_capacitance_f is not null
     and coalesce(jsonb_array_length(case when jsonb_typeof(r.results->'warnings') = 'array' then r.results->'warnings' end), 0) = 0
     and (?::text is null or b.kind = ?::text)
@@ -163,11 +164,14 @@ export interface CompareBuildRow {
   projectName: string;
 }
 
-/** An analysed run of a compared build, light: what the implied-capacitance trend needs. */
+/** An analysed run of a compared build, light: what the implied-capacitance trend and the run picker need. */
 export interface CompareTrendRun {
   id: string;
   buildId: string;
   createdAt: Date;
+  originalFilename: string;
+  /** Withdrawn runs are offered for choosing but never enter the trend. */
+  withdrawn: boolean;
   impliedExtraCapacitanceF: number | null;
   cEffF: number | null;
   measuredHz: number | null;
@@ -182,12 +186,14 @@ export interface CompareTweak {
   planned: boolean;
 }
 
-/** The newest analysed run of a compared build, with what the comparison shows of it. */
+/** The compared run of a build (the chosen one, else the newest that is not withdrawn), with what the comparison shows of it. */
 export interface CompareLatestRun {
   id: string;
   buildId: string;
   createdAt: Date;
   originalFilename: string;
+  /** When the chosen run is withdrawn (a default run never is). */
+  withdrawnAt: Date | null;
   measuredHz: number | null;
   frequencyUncertaintyHz: number | null;
   predictedHz: number | null;
@@ -202,6 +208,8 @@ export interface CompareLatestRun {
   harmonics: { order: number; dBc: number }[];
   /** Codes of the trust warnings the analysis raised. */
   warningCodes: string[];
+  /** The analysis's stability figures as stored (results.stability), or null when the engine did not measure them. */
+  stability: unknown;
 }
 
 export interface CompareRows {
@@ -213,11 +221,18 @@ export interface CompareRows {
 
 /**
  * Everything a comparison of builds reads, in four statements whatever the number of builds: the builds, their
- * analysed runs (light), their tweaks, and each build's newest analysed run in full.
+ * analysed runs (light, withdrawn ones flagged), their tweaks, and each build's compared run in full: the one
+ * chosen for it, else its newest analysed run that is not withdrawn.
  * @param buildIds - UUIDs; unknown ones are simply absent from the answer.
+ * @param chosenRunIds - UUIDs of runs to compare instead of the default; the caller checks they belong to the builds.
  */
-export async function listCompareRows(buildIds: readonly string[], trx: Knex | Knex.Transaction = db()): Promise<CompareRows> {
+export async function listCompareRows(
+  buildIds: readonly string[],
+  chosenRunIds: readonly string[] = [],
+  trx: Knex | Knex.Transaction = db(),
+): Promise<CompareRows> {
   const ids = [...buildIds];
+  const chosen = [...chosenRunIds];
   const [builds, trendRuns, tweaks, latest] = await Promise.all([
     trx("builds as b")
       .join("designs as d", "d.id", "b.design_id")
@@ -243,6 +258,8 @@ export async function listCompareRows(buildIds: readonly string[], trx: Knex | K
         "r.id",
         "r.build_id as buildId",
         "r.created_at as createdAt",
+        "r.original_filename as originalFilename",
+        trx.raw(`r.withdrawn_at is not null as "withdrawn"`),
         "r.implied_extra_capacitance_f as impliedExtraCapacitanceF",
         trx.raw(`(r.snapshot->>'cEffF')::double precision as "cEffF"`),
         "r.measured_hz as measuredHz",
@@ -255,6 +272,8 @@ export async function listCompareRows(buildIds: readonly string[], trx: Knex | K
     trx.raw<{ rows: CompareLatestRun[] }>(
       `select distinct on (r.build_id)
               r.id, r.build_id as "buildId", r.created_at as "createdAt", r.original_filename as "originalFilename",
+              r.withdrawn_at as "withdrawnAt",
+              case when jsonb_typeof(r.results->'stability') = 'object' then r.results->'stability' end as stability,
               r.measured_hz as "measuredHz", r.frequency_uncertainty_hz as "frequencyUncertaintyHz",
               coalesce((r.snapshot->>'predictedHz')::double precision, r.predicted_hz) as "predictedHz",
               case when jsonb_typeof(r.snapshot->'worstCase') = 'object' then r.snapshot->'worstCase' end as "worstCase",
@@ -267,9 +286,9 @@ export async function listCompareRows(buildIds: readonly string[], trx: Knex | K
               coalesce((select jsonb_agg(w->>'code')
                           from jsonb_array_elements(case when jsonb_typeof(r.results->'warnings') = 'array' then r.results->'warnings' else '[]'::jsonb end) w), '[]'::jsonb) as "warningCodes"
          from runs r
-        where r.build_id = any(?::uuid[]) and r.status = 'done'
-        order by r.build_id, r.created_at desc, r.id desc`,
-      [ids],
+        where r.build_id = any(?::uuid[]) and r.status = 'done' and (r.withdrawn_at is null or r.id = any(?::uuid[]))
+        order by r.build_id, (r.id = any(?::uuid[])) desc, r.created_at desc, r.id desc`,
+      [ids, chosen, chosen],
     ),
   ]);
   return { builds, trendRuns, tweaks, latestRuns: latest.rows };

@@ -69,8 +69,12 @@ export function comparedBuildJson(c: ComparedBuild) {
           verdict: r.verdict,
           harmonics: r.harmonics,
           warningCodes: r.warningCodes,
+          withdrawnAt: r.withdrawnAt,
+          chosen: c.runChosen,
+          stability: c.stability,
         }
       : null,
+    runChoices: c.runChoices,
     offsetHz: c.offsetHz,
     trend: { verdict: c.trend.verdict, typicalF: c.trend.typicalF, spreadF: c.trend.spreadF, allowanceF: c.trend.allowanceF, summary: c.trend.summary },
   };

@@ -15,6 +15,11 @@ const predictionQuery = z.object({
 });
 const compareQuery = z.object({
   ids: documented(z.string(), { description: "Two to eight build ids, comma-separated, in the order to show.", example: "3f2b8c1e-5d4a-4e6b-9a7c-1d2e3f4a5b6c,8a1d2c3b-4e5f-4a6b-8c7d-9e0f1a2b3c4d" }),
+  runs: documented(z.string().optional(), {
+    description:
+      "Optional: run ids, comma-separated, at most one per build, to compare instead of each build's default run (its newest analysed run that is not withdrawn). A chosen run may be withdrawn; it is shown marked.",
+    example: "5c6d7e8f-1a2b-4c3d-9e8f-7a6b5c4d3e2f",
+  }),
 });
 
 export function registerLayoutPaths(registry: OpenAPIRegistry): void {
@@ -53,8 +58,9 @@ export function registerLayoutPaths(registry: OpenAPIRegistry): void {
     tag: "Builds",
     summary: "Compare builds",
     description:
-      "Two or more builds of one design or of several: the newest analysed run of each against its prediction, THD and harmonic levels, " +
-      "and the implied-capacitance trend across its tweaks.",
+      "Two or more builds of one design or of several: the chosen run of each (by default its newest analysed run that is not withdrawn) " +
+      "against its prediction, THD and harmonic levels, the stability figures where the analysis measured them, the runs that can be " +
+      "chosen, and the implied-capacitance trend across its tweaks (withdrawn runs left out).",
     action: "read",
     query: compareQuery,
     responses: { 200: jsonResponse(buildComparisonSchema, "The builds, in the order asked for.") },

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { BUILD_KINDS, BUILD_STATUSES } from "@/db/queries/builds";
 import { documented } from "../documented";
-import { isoTime, rowId, topologySchema } from "./common";
+import { isoTime, nullableIsoTime, rowId, topologySchema } from "./common";
 
 const constructionSchema = documented(
   z.object({
@@ -104,9 +104,21 @@ const comparedRunSchema = documented(
     impliedExtraCapacitanceF: z.number().nullable(),
     thdPercent: z.number().nullable(),
     worstHarmonicDbc: z.number().nullable(),
-    verdict: z.enum(["pass", "fail"]).nullable(),
+    verdict: z.enum(["pass", "fail", "inconclusive"]).nullable(),
     harmonics: z.array(z.object({ order: z.int(), dBc: z.number() })),
     warningCodes: z.array(z.string()).describe("Trust warnings the analysis raised."),
+    withdrawnAt: nullableIsoTime.describe("Set when the chosen run is withdrawn (a default run never is)."),
+    chosen: z.boolean().describe("True when the run was chosen with ?runs= rather than the default."),
+    stability: z
+      .object({
+        measured: z.boolean().describe("False when the analysis holds no stability figures (analysed before the engine measured them)."),
+        reason: z.string().nullable().describe("Why there are no figures, when there are none."),
+        rmsJitterS: z.number().nullable().describe("rms phase jitter, s; null when not measured."),
+        jitterReason: z.string().nullable().describe("Why the jitter is not measured."),
+        phaseNoise: z.array(z.object({ offsetHz: z.number(), dbcPerHz: z.number(), atFloor: z.boolean().describe("At the capture's noise floor: an upper bound only.") })),
+        allan: z.array(z.object({ tauS: z.number(), adev: z.number() })),
+      })
+      .describe("The run's stability figures as the analysis measured them; missing ones say why, never 0."),
   }),
   { refId: "ComparedRun" },
 );
@@ -128,8 +140,11 @@ export const buildComparisonSchema = documented(
           projectName: z.string(),
         }),
         construction: z.object({ key: z.string(), name: z.string() }),
-        runCount: z.int(),
-        latestRun: comparedRunSchema.nullable().describe("The newest analysed run; null before the first."),
+        runCount: z.int().describe("Analysed runs that count (withdrawn ones left out)."),
+        latestRun: comparedRunSchema.nullable().describe("The compared run: the chosen one, else the newest analysed run that is not withdrawn; null when there is none."),
+        runChoices: z
+          .array(z.object({ id: rowId, createdAt: isoTime, originalFilename: z.string(), withdrawn: z.boolean() }))
+          .describe("Every analysed run of the build, newest first, withdrawn ones marked: the runs ?runs= can choose."),
         offsetHz: z.number().nullable().describe("measured − predicted of the latest run, Hz."),
         trend: z.object({
           verdict: z.enum(["too-few-runs", "untested", "steady", "changing"]),

@@ -6,9 +6,12 @@ import { compareQuerySchema } from "@/lib/validations/layouts";
 
 export const dynamic = "force-dynamic";
 
-/** Two or more builds side by side (latest analysed run of each): `{items}`; `?ids=<id>,<id>`. */
+/**
+ * Two or more builds side by side: `{items}`; `?ids=<id>,<id>`, and `&runs=<id>,…` to choose the run of some builds
+ * (default: each build's newest analysed run that is not withdrawn).
+ */
 export const GET = apiHandler({ action: "read" }, async (request, _context, user) => {
-  const { ids } = compareQuerySchema.parse(queryObject(request));
-  const builds = await getBuildComparison(user, ids);
+  const { ids, runs } = compareQuerySchema.parse(queryObject(request));
+  const builds = await getBuildComparison(user, ids, runs ?? []);
   return Response.json({ items: builds.map(comparedBuildJson) });
 });
