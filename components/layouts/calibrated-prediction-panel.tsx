@@ -18,7 +18,8 @@ export interface CalibratedPredictionPanelProps {
   keep?: Record<string, string>;
 }
 
-function Column({ title, figures, reference }: { title: string; figures: PredictionFigures; reference?: PredictionFigures }) {
+/** One prediction with its worst-case and statistical bands; with `reference`, its shift from that one. */
+export function PredictionColumn({ title, figures, reference }: { title: string; figures: PredictionFigures; reference?: PredictionFigures }) {
   const f = figures.predictedHz;
   const shift = reference ? formatPercent(((f - reference.predictedHz) / reference.predictedHz) * 100, 2, { signed: true }) : null;
   return (
@@ -77,8 +78,8 @@ export function CalibratedPredictionPanel({ view, chooserPath, keep = {} }: Cali
       {p ? (
         <>
           <div className="grid gap-2 sm:grid-cols-2">
-            <Column title="As designed" figures={p.asDesigned} />
-            <Column title={`As it will likely measure on ${place} here`} figures={p.asBuilt} reference={p.asDesigned} />
+            <PredictionColumn title="As designed" figures={p.asDesigned} />
+            <PredictionColumn title={`As it will likely measure on ${place} here`} figures={p.asBuilt} reference={p.asDesigned} />
           </div>
           <p className="text-xs text-ink-soft">
             {view.constructionName} adds <span className="num font-mono text-ink">{picofaradFigure(p.labCapacitanceF)}</span>

@@ -15,6 +15,7 @@ import { TOPOLOGY_NAMES } from "./design-model";
 import { DesignErrorSummary, designFieldId, designFieldLabel, type SummaryItem } from "./design-error-summary";
 import { previewDesign, switchTopology, type DesignDraft, type PartDraft, type SpecDraft } from "./design-draft";
 import { PredictionPanel } from "./prediction-panel";
+import { ValueProposalStep, type ValueProposalStepProps } from "./value-proposal-step";
 
 export interface DesignFormProps {
   /** The server action that saves; not used in "whatif" mode. */
@@ -23,6 +24,8 @@ export interface DesignFormProps {
   /** Editing keeps the topology (a new topology is a new design); "whatif" only predicts and saves nothing. */
   mode: "create" | "edit" | "whatif";
   cancelHref?: string;
+  /** The "start from a target" step (create mode): the server action and this lab's constructions per topology. */
+  proposal?: Pick<ValueProposalStepProps, "propose" | "constructions">;
 }
 
 async function saveNothing(state: FormState): Promise<FormState> {
@@ -35,7 +38,7 @@ const UNIT_WORD = { inductance: "H", capacitance: "F", coupling: "" } as const;
  * Create or edit a design. The prediction beside the form is recomputed as values are typed, in the browser, with
  * the server's own schema and model; saving an edit makes a new revision.
  */
-export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFormProps) {
+export function DesignForm({ action, initialDraft, mode, cancelHref, proposal }: DesignFormProps) {
   const whatIf = mode === "whatif";
   const [state, formAction, pending] = useActionState(action ?? saveNothing, {} as FormState);
   const [draft, setDraft] = useState<DesignDraft>(initialDraft);
@@ -150,6 +153,28 @@ export function DesignForm({ action, initialDraft, mode, cancelHref }: DesignFor
             </Field>
           </CardBody>
         </Card>
+
+        {proposal && mode === "create" ? (
+          <ValueProposalStep
+            key={draft.topology}
+            topology={draft.topology}
+            targetText={draft.spec.targetHz}
+            inductanceTexts={Object.fromEntries(Object.entries(draft.parts).map(([ref, p]) => [ref, p.value]))}
+            constructions={proposal.constructions}
+            propose={proposal.propose}
+            onAccept={(values, targetText) =>
+              setDraft((d) => ({
+                ...d,
+                // Only the values change: tolerances and tempcos already typed stay.
+                parts: {
+                  ...d.parts,
+                  ...Object.fromEntries(Object.entries(values).map(([ref, v]) => [ref, { ...(d.parts[ref] ?? { value: "", tolerance: "", tempco: "" }), value: v }])),
+                },
+                spec: d.spec.targetHz.trim() === "" ? { ...d.spec, targetHz: targetText } : d.spec,
+              }))
+            }
+          />
+        ) : null}
 
         <Card>
           <CardHeader

@@ -27,7 +27,7 @@ import { BuildsTableSection } from "@/components/builds-table/builds-table-secti
 import { CalibratedPredictionPanel } from "@/components/layouts/calibrated-prediction-panel";
 import { BuildsAgainstPredictionChart } from "@/components/layouts/builds-against-prediction-chart";
 import { constructionName, constructionOf, parseConstruction } from "@/lib/layouts/construction";
-import { designCalibration } from "@/lib/logbook/layouts";
+import { designCalibration, designCalibrationsByConstruction } from "@/lib/logbook/layouts";
 import { createBuildAction } from "../actions";
 
 type Props = {
@@ -73,7 +73,12 @@ export default async function DesignPage({ params, searchParams }: Props) {
   }
   const revisions = await listDesignRevisions(designId);
   const constructionParam = one(search.construction);
-  const calibration = await designCalibration(user, design, constructionParam ? parseConstruction(constructionParam) : null);
+  const canBuild = can(user.role, "build:create");
+  const [calibration, buildFormCalibration] = await Promise.all([
+    designCalibration(user, design, constructionParam ? parseConstruction(constructionParam) : null),
+    // The new-build form's predictions per construction, only for those who may create a build.
+    canBuild ? designCalibrationsByConstruction(user, design) : undefined,
+  ]);
 
   const base = `/projects/${projectId}/designs/${designId}`;
   const rev = design.revision;
@@ -87,7 +92,6 @@ export default async function DesignPage({ params, searchParams }: Props) {
   }
   const spec = specPhrases(rev.spec);
   const canEdit = can(user.role, "design:write");
-  const canBuild = can(user.role, "build:create");
   // The builds on this page of the list, each at its latest run's drift from prediction.
   const chartPoints = builds.items.flatMap((b) =>
     b.latestRun?.driftPpm != null
@@ -187,7 +191,11 @@ export default async function DesignPage({ params, searchParams }: Props) {
         </h2>
         {canBuild ? (
           <CreatePanel title="New build" startOpen={builds.items.length === 0 && !cursor}>
-            <BuildForm action={createBuildAction.bind(null, designId)} suggestedLabel={nextLabel(builds.items.map((b) => b.label))} />
+            <BuildForm
+              action={createBuildAction.bind(null, designId)}
+              suggestedLabel={nextLabel(builds.items.map((b) => b.label))}
+              calibration={buildFormCalibration}
+            />
           </CreatePanel>
         ) : null}
         {chartPoints.length > 0 ? (

@@ -8,6 +8,8 @@ import { PageHeader } from "@/components/ui/page-header";
 import { getProject } from "@/db/queries/projects";
 import { requireUser } from "@/lib/auth/current-user";
 import { can } from "@/lib/auth/permissions";
+import { listConstructionChoicesByTopology } from "@/lib/logbook/layouts";
+import { proposeDesignValuesAction } from "@/app/(app)/layouts/actions";
 import { createDesignAction } from "../actions";
 
 export const metadata: Metadata = { title: "New design" };
@@ -21,6 +23,9 @@ export default async function NewDesignPage({ params }: Props) {
   const project = await getProject(projectId);
   if (!project) notFound();
   const base = `/projects/${projectId}`;
+  const canWrite = can(user.role, "design:write");
+  // The "start from a target" step aims at this lab's constructions, each with its steady-build count.
+  const constructions = canWrite ? await listConstructionChoicesByTopology(user) : null;
   return (
     <>
       <PageHeader
@@ -30,8 +35,14 @@ export default async function NewDesignPage({ params }: Props) {
         title="New design"
         description="Pick the topology, enter the part values with their tolerances, and set the spec. The prediction follows as you type."
       />
-      {can(user.role, "design:write") ? (
-        <DesignForm mode="create" action={createDesignAction.bind(null, projectId)} initialDraft={emptyDraft("colpitts")} cancelHref={base} />
+      {canWrite && constructions ? (
+        <DesignForm
+          mode="create"
+          action={createDesignAction.bind(null, projectId)}
+          initialDraft={emptyDraft("colpitts")}
+          cancelHref={base}
+          proposal={{ propose: proposeDesignValuesAction, constructions }}
+        />
       ) : (
         <p role="alert" className="rounded-md border border-rule bg-paper-raised px-4 py-3 text-sm text-ink-soft">
           Creating designs needs the engineer role; you are signed in as a {user.role}. Ask an engineer or an admin.
