@@ -14,6 +14,7 @@ import { hashPassword } from "../lib/auth/password";
 import type { Role } from "../lib/auth/permissions";
 import { seedDemoLogbook } from "./seed/logbook";
 import { seedLayoutSurvey } from "./seed/layouts";
+import { seedSensitivityDemo } from "./seed/sensitivity";
 
 /** What earlier steps made, for later ones (e.g. whose name a demo build goes under). */
 export interface SeedContext {
@@ -73,6 +74,7 @@ const steps: SeedStep[] = [
   { name: "demo accounts", run: seedDemoAccounts },
   { name: "demo logbook", run: seedDemoLogbook },
   { name: "layout survey", run: seedLayoutSurvey },
+  { name: "sensitivity demo", run: seedSensitivityDemo },
 ];
 
 async function main(): Promise<number> {
