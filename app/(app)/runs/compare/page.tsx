@@ -4,6 +4,7 @@ import { SpectrumOverlayChart } from "@/components/charts/spectrum-overlay-chart
 import { Breadcrumbs, buildPlace, trailCrumbs } from "@/components/logbook/breadcrumbs";
 import { isRowId } from "@/components/logbook/route-ids";
 import { runFigures } from "@/components/logbook/run-results";
+import { StabilityComparison } from "@/components/logbook/stability/stability-comparison";
 import { tweakLabel } from "@/components/logbook/tweak-label";
 import { RunComparisonTable } from "@/components/review/run-comparison-table";
 import { buttonVariants } from "@/components/ui/button";
@@ -217,6 +218,13 @@ export default async function CompareRunsPage({ searchParams }: Props) {
                 a={{ id: a.id, label: label(a, "A") }}
                 b={{ id: b.id, label: label(b, "B") }}
               />
+            </CardBody>
+          </Card>
+
+          <Card>
+            <CardHeader title="Stability" description="Jitter, phase noise, Allan deviation and start-up or ring-down of each run, from its own record." />
+            <CardBody>
+              <StabilityComparison a={{ label: label(a, "A"), results: a.results }} b={{ label: label(b, "B"), results: b.results }} />
             </CardBody>
           </Card>
         </div>
