@@ -4,6 +4,7 @@
 // and lib/analysis) is bundled once with esbuild into node_modules/.cache (git-ignored) and
 // rebuilt whenever a source file is newer than the bundle; then node runs the bundle directly.
 import { mkdirSync, readdirSync, renameSync, statSync } from "node:fs";
+import v8 from "node:v8";
 import path from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 
@@ -62,4 +63,10 @@ if (bundleMs() < newestSourceMs()) {
   }
 }
 
+// A long loop's optimised (OSR) code is compiled on a background thread by default, and the loop
+// keeps running interpreted, boxing every double, until it is ready. This command keeps both cores
+// busy (its worker parses and computes the spectrum), so that thread waits for a core: compiling in
+// place costs less. CPU time of a 1M-sample run, 8 interleaved pairs: 0.94 → 0.81 s. Flags change
+// no result: V8 computes doubles the same way in every tier.
+v8.setFlagsFromString("--no-concurrent-osr");
 await import(pathToFileURL(bundle).href);
