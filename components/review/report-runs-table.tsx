@@ -43,6 +43,12 @@ export function ReportRunsTable({ runs, tweakText, chartIndex }: ReportRunsTable
                   {r.originalFilename}
                 </Link>
                 {r.tweakId && tweakText[r.tweakId] ? <span className="block text-xs text-ink-faint">after {tweakText[r.tweakId]}</span> : null}
+                {r.withdrawnAt ? (
+                  <span className="block text-xs text-ink-soft" data-withdrawn="true">
+                    <span aria-hidden="true">⊘ </span>
+                    <span className="font-medium">Withdrawn</span>: {r.withdrawalReason} · not in the charts or the verdict
+                  </span>
+                ) : null}
               </Td>
               <Td numeric className="whitespace-nowrap">
                 {f.value}
