@@ -34,6 +34,11 @@ export interface RunExportRow {
   engineVersion: string | null;
   createdByName: string;
   error: string | null;
+  /**
+   * The stored result's stability figures without their plotted curves (engine ≥ 1.3): jitter, phase-noise
+   * points, period jitter, the first Allan point and the envelope; null on older results. Read by lib/exports.
+   */
+  stability: Record<string, unknown> | null;
 }
 
 /** The runs table's filters without paging: the export holds every matching row. */
@@ -68,6 +73,7 @@ interface ExportDbRow {
   engine_version: string | null;
   created_by_name: string;
   error: string | null;
+  stability: Record<string, unknown> | null;
 }
 
 function toExportRow(r: ExportDbRow): RunExportRow {
@@ -99,6 +105,7 @@ function toExportRow(r: ExportDbRow): RunExportRow {
     engineVersion: r.engine_version,
     createdByName: r.created_by_name,
     error: r.error,
+    stability: r.stability,
   };
 }
 
@@ -135,6 +142,10 @@ function exportQuery(buildId: string, filter: RunExportFilter, trx: Knex | Knex.
       "r.engine_version",
       "u.name as created_by_name",
       "r.error",
+      // Only the figures the CSV carries: the curves would add kilobytes a row.
+      trx.raw(
+        "case when r.results->'stability' is not null then jsonb_build_object('jitter', r.results#>'{stability,jitter}', 'points', r.results#>'{stability,phaseNoise,points}', 'periodJitter', r.results#>'{stability,periodJitter}', 'allan', r.results#>'{stability,allan,points,0}', 'envelope', (r.results#>'{stability,envelope}') - 'curve') end as stability",
+      ),
     )
     .where("r.build_id", buildId);
   return whereRunFilter(q, filter).orderBy("r.created_at", "desc").orderBy("r.id", "desc");

@@ -1,13 +1,14 @@
 import Papa from "papaparse";
 import type { RunExportRow } from "@/db/queries/exports";
+import { STABILITY_CSV_COLUMNS } from "./stability-columns";
 
 // The runs table as CSV: one header row naming each column with its SI unit, times in ISO 8601 UTC, numbers at
 // full precision (they read back to the same double), text cells that a spreadsheet would run as a formula
 // (= + - @, tab, CR at the start) prefixed with a quote; numbers are never touched, so −38.2 stays a number.
 
-type Cell = string | number | null;
+export type Cell = string | number | null;
 
-interface Column {
+export interface Column {
   header: string;
   value: (row: RunExportRow) => Cell;
 }
@@ -41,6 +42,7 @@ export const RUN_CSV_COLUMNS: readonly Column[] = [
   { header: "Logged by", value: (r) => r.createdByName },
   { header: "Engine version", value: (r) => r.engineVersion },
   { header: "Error", value: (r) => r.error },
+  ...STABILITY_CSV_COLUMNS,
 ];
 
 const NEWLINE = "\r\n";
