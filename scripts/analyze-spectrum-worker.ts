@@ -8,7 +8,7 @@
  * main thread, which waits synchronously.
  */
 import { closeSync, openSync, readSync } from "node:fs";
-import { type MessagePort, parentPort } from "node:worker_threads";
+import { type MessagePort, parentPort, workerData } from "node:worker_threads";
 import { type ParsedRows, parseRowStretch, prepareWindowedSpectrum, type RowLayout, windowedSpectrum } from "../lib/analysis";
 
 interface Reply {
@@ -38,6 +38,8 @@ interface SpectrumJob extends Reply {
 }
 
 const CHUNK_BYTES = 1 << 20;
+/** The whole record's expected length, from the parse job, until its FFT plan is built. */
+let expected: { samples: number; maxFftLength?: number } | undefined;
 
 function* fileChunks(path: string, startByte: number): Generator<Uint8Array> {
   const fd = openSync(path, "r");
@@ -83,10 +85,17 @@ function run(job: ParseJob | SpectrumJob): void {
       // Marked done first: the main thread may be waiting, and readying the spectrum is only for later.
       Atomics.store(flag, 0, 2);
       Atomics.notify(flag, 0);
-      prepareWindowedSpectrum(job.expectedSamples, { maxFftLength: job.maxFftLength });
+      // The head's spectrum is asked for next and soon: the whole record's plan waits until after it.
+      expected = { samples: job.expectedSamples, maxFftLength: job.maxFftLength };
     } else {
       const reply = spectrum(job);
       job.port.postMessage(reply, [reply.spectrum.amplitudeVpk.buffer as ArrayBuffer]);
+      Atomics.store(flag, 0, 2);
+      Atomics.notify(flag, 0);
+      if (expected) {
+        prepareWindowedSpectrum(expected.samples, { maxFftLength: expected.maxFftLength });
+        expected = undefined;
+      }
     }
   } catch (error) {
     job.port.postMessage({ error: error instanceof Error ? error.message : String(error) });
@@ -97,3 +106,5 @@ function run(job: ParseJob | SpectrumJob): void {
 }
 
 parentPort?.on("message", run);
+// Loaded and listening: the main thread splits the rows left at this moment.
+if (workerData?.ready) Atomics.store(new Int32Array(workerData.ready as SharedArrayBuffer), 0, 1);

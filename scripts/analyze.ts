@@ -144,7 +144,9 @@ function importFile(path: string, worker?: Worker) {
         position += read;
         // The importer copies what it keeps, so one buffer serves every chunk.
         importer.push(buffer.subarray(0, read));
-        if (parallel && !secondHalf && end === Infinity) {
+        // Split only once the worker is up: halving what is left then keeps the two halves even
+        // however long its start-up took (a fixed split left this thread waiting for it).
+        if (parallel && !secondHalf && end === Infinity && workerReady.get(worker)?.[0] === 1) {
           secondHalf = startSecondHalf(worker, fd, path, importer, position, stat.size);
           if (secondHalf) end = secondHalf.startByte;
         }
@@ -231,13 +233,18 @@ const PARALLEL_SPECTRUM_SAMPLES = 200_000;
 const WORKER_START_MS = 2_000;
 const WORKER_WAIT_MS = 120_000;
 
+/** Per worker, a shared flag it sets to 1 once it is loaded and listening. */
+const workerReady = new WeakMap<Worker, Int32Array>();
+
 /** The spectrum worker, started before the file is read so its start-up overlaps the import. */
 function startSpectrumWorker(): Worker | undefined {
   // Only from the bundle (scripts/run-analyze.mjs): under tsx a worker loads its .ts through the
   // main thread's loader, which cannot answer while the main thread waits for the worker.
   if (import.meta.url.endsWith(".ts")) return undefined;
   try {
-    const worker = new Worker(new URL("./analyze-spectrum-worker.mjs", import.meta.url));
+    const ready = new Int32Array(new SharedArrayBuffer(4));
+    const worker = new Worker(new URL("./analyze-spectrum-worker.mjs", import.meta.url), { workerData: { ready: ready.buffer } });
+    workerReady.set(worker, ready);
     worker.unref();
     worker.on("error", () => undefined); // a failed worker only means computing the spectrum here
     return worker;
