@@ -17,8 +17,7 @@ const bundle = path.join(outdir, "analyze.mjs");
 function newestSourceMs() {
   let newest = Math.max(statSync(entry).mtimeMs, statSync(workerEntry).mtimeMs, statSync(fileURLToPath(import.meta.url)).mtimeMs);
   const dir = path.join(root, "lib", "analysis");
-  for (const name of readdirSync(path.join(dir, "parse"))) newest = Math.max(newest, statSync(path.join(dir, "parse", name)).mtimeMs);
-  // One level of subfolders (lib/analysis/stability): a folder's own mtime does not change when a file in it is edited.
+  // One level of subfolders (lib/analysis/stability, lib/analysis/parse): a folder's own mtime does not change when a file in it is edited.
   for (const entry of readdirSync(dir, { withFileTypes: true })) {
     const full = path.join(dir, entry.name);
     newest = Math.max(newest, statSync(full).mtimeMs);
