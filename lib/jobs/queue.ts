@@ -1,6 +1,7 @@
 import type { Knex } from "knex";
 import PgBoss from "pg-boss";
 import { jobSettings } from "./config";
+import { ANALYSIS_QUEUED_CHANNEL } from "./wake";
 
 /** The pg-boss queue of analysis jobs: one job per run id, data `{ runId }`. */
 export const ANALYSIS_QUEUE = "analyse-run";
@@ -11,7 +12,8 @@ export interface AnalysisJobData {
   runId: string;
 }
 
-function databaseUrl(): string {
+/** The queue's database (the app's own). */
+export function databaseUrl(): string {
   return process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/tankbook";
 }
 
@@ -96,14 +98,21 @@ function knexExecutor(trx: Knex | Knex.Transaction): PgBoss.Db {
 }
 
 /**
- * Queues the analysis of a run.
- * @param trx the transaction that creates or resets the run; the job commits with it
+ * Queues the analysis of a run and wakes the idle workers (lib/jobs/wake.ts) when it commits.
+ * @param trx the transaction that creates or resets the run; the job and the wake-up commit with it
  * @returns the job id, or null when a job for this run is already waiting
  */
 export async function enqueueAnalysis(runId: string, trx?: Knex | Knex.Transaction): Promise<string | null> {
   const boss = await senderBoss();
   const data: AnalysisJobData = { runId };
-  return boss.send(ANALYSIS_QUEUE, data, { singletonKey: runId, ...(trx ? { db: knexExecutor(trx) } : {}) });
+  if (!trx) {
+    const id = await boss.send(ANALYSIS_QUEUE, data, { singletonKey: runId });
+    await boss.getDb().executeSql(`select pg_notify('${ANALYSIS_QUEUED_CHANNEL}', '')`, []);
+    return id;
+  }
+  const id = await boss.send(ANALYSIS_QUEUE, data, { singletonKey: runId, db: knexExecutor(trx) });
+  await trx.raw(`select pg_notify('${ANALYSIS_QUEUED_CHANNEL}', '')`);
+  return id;
 }
 
 /** Whether a run has a job that is waiting, retrying or running (for the worker's safety sweep). */

@@ -7,7 +7,8 @@ import { deleteObject } from "@/lib/storage";
 import { jobSettings } from "./config";
 import { createAnalysisPool, type AnalysisPool } from "./pool";
 import { processRun } from "./process-run";
-import { ANALYSIS_QUEUE, enqueueAnalysis, hasPendingJob, startBoss, type AnalysisJobData } from "./queue";
+import { ANALYSIS_QUEUE, databaseUrl, enqueueAnalysis, hasPendingJob, startBoss, type AnalysisJobData } from "./queue";
+import { listenForQueuedJobs } from "./wake";
 
 export interface AnalysisWorker {
   /** Stops taking jobs, lets running ones finish (up to `timeoutMs`), then closes the pool and connections. */
@@ -64,7 +65,8 @@ export async function sweepExpiredUploads(graceMs = 3600_000): Promise<number> {
 
 /**
  * Starts an analysis worker in this process: pg-boss fetches jobs (one per run id at a time, across every
- * worker on every machine), each job's analysis runs on a piscina thread, results go to PostgreSQL.
+ * worker on every machine), each job's analysis runs on a piscina thread, results go to PostgreSQL. Idle workers
+ * fetch as soon as a job is announced (lib/jobs/wake.ts) and poll every ANALYSIS_POLL_SECONDS besides.
  * Maintenance in pg-boss re-queues jobs whose worker died (after ANALYSIS_JOB_TIMEOUT_SECONDS).
  */
 export async function startAnalysisWorker(options: WorkerOptions = {}): Promise<AnalysisWorker> {
@@ -74,23 +76,35 @@ export async function startAnalysisWorker(options: WorkerOptions = {}): Promise<
   const boss: PgBoss = await startBoss({ supervise: true, poolMax: threads + 2 });
   const pool: AnalysisPool = createAnalysisPool(threads);
 
+  const workerIds: string[] = [];
   for (let i = 0; i < threads; i++) {
-    await boss.work<AnalysisJobData>(
+    let workerId = "";
+    workerId = await boss.work<AnalysisJobData>(
       ANALYSIS_QUEUE,
       { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: settings.pollSeconds },
       async ([job]) => {
         const started = Date.now();
-        const outcome = await processRun(job.data.runId, {
-          analyse: (input) => pool.run(input),
-          lastAttempt: job.retryCount >= job.retryLimit,
-          log,
-        });
-        if (outcome === "done") await notifyFlags(job.data.runId); // never throws: a mail failure is logged, the run stays done
-        log(`run ${job.data.runId}: ${outcome} in ${Date.now() - started} ms (attempt ${job.retryCount + 1})`);
-        return { outcome };
+        try {
+          const outcome = await processRun(job.data.runId, {
+            analyse: (input) => pool.run(input),
+            lastAttempt: job.retryCount >= job.retryLimit,
+            log,
+          });
+          if (outcome === "done") await notifyFlags(job.data.runId); // never throws: a mail failure is logged, the run stays done
+          log(`run ${job.data.runId}: ${outcome} in ${Date.now() - started} ms (attempt ${job.retryCount + 1})`);
+          return { outcome };
+        } finally {
+          // pg-boss waits out the rest of its polling interval after a job shorter than it; with more jobs
+          // waiting that idled the thread for up to a second per job. Marked as notified, it fetches at once.
+          boss.notifyWorker(workerId);
+        }
       },
     );
+    workerIds.push(workerId);
   }
+  const listener = await listenForQueuedJobs(databaseUrl(), () => {
+    for (const id of workerIds) boss.notifyWorker(id);
+  }, log);
 
   const sweepAfterMs = (settings.jobTimeoutSeconds + 60) * 1000;
   const sweep = setInterval(() => {
@@ -110,6 +124,7 @@ export async function startAnalysisWorker(options: WorkerOptions = {}): Promise<
       if (stopped) return;
       stopped = true;
       clearInterval(sweep);
+      await listener.stop();
       await boss.stop({ graceful: true, wait: true, timeout: timeoutMs });
       await pool.destroy();
     },
