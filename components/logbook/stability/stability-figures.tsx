@@ -17,6 +17,11 @@ function noteFor(reason: string | null, atFloor: boolean, floorText: string | nu
   return atFloor ? `At the capture's noise floor${floorText ? ` (${floorText})` : ""}: the oscillator is at least this clean.` : floorText ? `Floor ${floorText}.` : null;
 }
 
+/** A tile's detail line may be long (a band, two figures): let it wrap on a phone instead of pushing the page wide. */
+function Wrap({ children }: { children: ReactNode }) {
+  return <span className="whitespace-normal break-words">{children}</span>;
+}
+
 /** The jitter, period-jitter and envelope figures as headline tiles. */
 export function StabilityFigures({ stability }: { stability: StabilityResult }) {
   const { jitter, periodJitter, envelope, phaseNoise } = stability;
@@ -27,9 +32,9 @@ export function StabilityFigures({ stability }: { stability: StabilityResult }) 
         label="rms phase jitter"
         value={jitter.rmsJitterS === null ? <NotMeasured /> : `${bound(jitter.atFloor)}${formatQuantity(jitter.rmsJitterS, "s", 3)}`}
         detail={
-          jitter.rmsPhaseRad === null
-            ? undefined
-            : `${bound(jitter.atFloor)}${formatQuantity(jitter.rmsPhaseRad, "rad", 3)} over ${formatQuantity(jitter.bandLowHz, "Hz", 2)}–${formatQuantity(jitter.bandHighHz, "Hz", 3)}`
+          jitter.rmsPhaseRad === null ? undefined : (
+            <Wrap>{`${bound(jitter.atFloor)}${formatQuantity(jitter.rmsPhaseRad, "rad", 3)} over ${formatQuantity(jitter.bandLowHz, "Hz", 2)}–${formatQuantity(jitter.bandHighHz, "Hz", 3)}`}</Wrap>
+          )
         }
         note={noteFor(jitter.reason, jitter.atFloor, jitter.floorRmsJitterS === null ? null : formatQuantity(jitter.floorRmsJitterS, "s", 2))}
       />
@@ -38,7 +43,7 @@ export function StabilityFigures({ stability }: { stability: StabilityResult }) 
         value={
           firstPoint ? `${bound(firstPoint.atFloor)}${formatDecibels(firstPoint.dbcPerHz, "dBc/Hz")}` : <NotMeasured />
         }
-        detail={phaseNoise.floor ? `floor ${formatDecibels(phaseNoise.floor.dbcPerHz, "dBc/Hz")}` : undefined}
+        detail={phaseNoise.floor ? <Wrap>{`floor ${formatDecibels(phaseNoise.floor.dbcPerHz, "dBc/Hz")}`}</Wrap> : undefined}
         note={phaseNoise.reason ?? (firstPoint?.atFloor ? "Every decade offset is at the floor." : null)}
       />
       <MetricTile
@@ -51,13 +56,18 @@ export function StabilityFigures({ stability }: { stability: StabilityResult }) 
           )
         }
         detail={
-          periodJitter.rmsCycleToCycleS === null || periodJitter.rmsPeriodJitterFraction === null
-            ? undefined
-            : `cycle-to-cycle ${bound(periodJitter.atFloor)}${formatQuantity(periodJitter.rmsCycleToCycleS, "s", 3)} · ${bound(periodJitter.atFloor)}${(periodJitter.rmsPeriodJitterFraction * 1e6).toPrecision(3)} ppm of T`
+          periodJitter.rmsCycleToCycleS === null || periodJitter.rmsPeriodJitterFraction === null ? undefined : (
+            <Wrap>{`cycle-to-cycle ${bound(periodJitter.atFloor)}${formatQuantity(periodJitter.rmsCycleToCycleS, "s", 3)} · ${bound(periodJitter.atFloor)}${(periodJitter.rmsPeriodJitterFraction * 1e6).toPrecision(3)} ppm of T`}</Wrap>
+          )
         }
         note={periodJitter.reason ?? `${periodJitter.periods} periods${periodJitter.atFloor ? ", at the noise floor" : ""}.`}
       />
-      <MetricTile label={envelopeLabel(envelope.kind)} value={envelopeValue(stability)} detail={envelopeDetail(stability)} note={envelope.reason} />
+      <MetricTile
+        label={envelopeLabel(envelope.kind)}
+        value={envelopeValue(stability)}
+        detail={envelopeDetail(stability) ? <Wrap>{envelopeDetail(stability)}</Wrap> : undefined}
+        note={envelope.reason}
+      />
     </dl>
   );
 }
