@@ -154,3 +154,16 @@ describe("the quantization floor", () => {
     expect(stability.jitter.atFloor).toBe(true);
   });
 });
+
+describe("a spur in the floor's band", () => {
+  it("does not lift the floor (the white level is a median)", () => {
+    const random = new SeededRandom(1305);
+    const noise = 1e-3;
+    const y = toneWithPhase(new Float64Array(N), noise, random);
+    // −60 dBc at 1.2·f0: 0.2·f0 from the carrier, inside [f0/8, f0/4] where the floor is read.
+    for (let n = 0; n < N; n++) y[n] += 1e-3 * Math.cos((2 * Math.PI * 1.2 * F0 * n) / FS);
+    const { stability } = stabilityOf(y);
+    expect(Math.abs(stability.phaseNoise.floor!.additiveDbcPerHz - db((2 * noise * noise) / FS))).toBeLessThan(0.5);
+  });
+});
+

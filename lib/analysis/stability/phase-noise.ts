@@ -2,7 +2,7 @@ import type { PhaseResidual } from "./demodulate";
 import { floorMargin } from "./stats";
 
 export { floorMargin };
-import { bandIntegral, bandMean, detrend, hannPsd, type OneSidedPsd } from "./psd";
+import { bandIntegral, bandMean, bandWhiteLevel, detrend, hannPsd, type OneSidedPsd } from "./psd";
 import type { PhaseNoiseFloor, PhaseNoisePoint, StabilityJitter, StabilityPhaseNoise } from "./types";
 
 const CURVE_BANDS_PER_DECADE = 10;
@@ -46,7 +46,8 @@ export function offsetBand(recordS: number, frequencyHz: number, sampleRateHz: n
  *
  * The floor: additive white noise of σ² per sample splits evenly into AM and PM, each with
  * 𝓛 = 2σ²/(A²·fs) (REFERENCES.md, phase noise and jitter), so the residual's AM density at the
- * upper half of the band measures it without the oscillator's own phase noise in it; a code step q
+ * upper half of the band (its median, so a spur there does not lift it) measures it without the
+ * oscillator's own phase noise in it; a code step q
  * adds q²/12 per sample, and the floor is the larger of the two.
  */
 export function phaseNoiseAndJitter(inputs: PhaseNoiseInputs): { phaseNoise: StabilityPhaseNoise; jitter: StabilityJitter; additiveNoiseVrms: number } {
@@ -55,7 +56,7 @@ export function phaseNoiseAndJitter(inputs: PhaseNoiseInputs): { phaseNoise: Sta
   const { lowHz, highHz } = offsetBand(recordS, frequencyHz, sampleRateHz, inputs.upperOffsetHz);
   const { pm, am } = residualDensities(residual, amplitudeVpk);
 
-  const floorBand = bandMean(am, highHz / 2, highHz) ?? bandMean(am, lowHz, highHz);
+  const floorBand = bandWhiteLevel(am, highHz / 2, highHz) ?? bandWhiteLevel(am, lowHz, highHz);
   // White additive noise: 𝓛 = S_AM/2 per the even split; σ² = 𝓛·A²·fs/2 per sample.
   const additiveL = (floorBand?.mean ?? 0) / 2;
   const step = inputs.quantizationStepV;

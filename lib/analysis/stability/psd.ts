@@ -101,3 +101,20 @@ export function bandIntegral(psd: OneSidedPsd, lowHz: number, highHz: number): {
   const independent = Math.max(1, (effectiveBins * psd.binHz * psd.durationS) / HANN_ENBW_BINS);
   return { integral: sum * psd.binHz, bins, dof: 2 * independent };
 }
+
+/**
+ * A spur-proof white level over [lowHz, highHz]: the median bin over ln 2. Each periodogram bin of a
+ * Gaussian series is exponential (χ² with 2 dof) whatever its neighbours, so its median is ln 2 of its
+ * mean; a few bins lifted by a spur or a sideband move the median hardly at all, the mean a lot.
+ */
+export function bandWhiteLevel(psd: OneSidedPsd, lowHz: number, highHz: number): { mean: number; bins: number; dof: number } | undefined {
+  const first = Math.max(1, Math.ceil(lowHz / psd.binHz - 1e-9));
+  const last = Math.min(psd.density.length - 1, Math.floor(highHz / psd.binHz + 1e-9));
+  if (last < first) return undefined;
+  const values = Float64Array.from(psd.density.subarray(first, last + 1)).sort();
+  const n = values.length;
+  const median = n % 2 ? values[(n - 1) / 2] : (values[n / 2 - 1] + values[n / 2]) / 2;
+  const band = bandMean(psd, lowHz, highHz)!;
+  // A median is a little less efficient than a mean (2/π for a normal; taken as such here).
+  return { mean: median / Math.LN2, bins: n, dof: band.dof * (2 / Math.PI) };
+}
