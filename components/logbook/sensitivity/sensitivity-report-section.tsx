@@ -1,5 +1,7 @@
+import { SensitivityScatterChart } from "@/components/charts/sensitivity-scatter-chart";
 import type { SensitivityReport } from "@/lib/sensitivity/types";
 import { RunToRunTable } from "./run-to-run-table";
+import { scatterSeries } from "./scatter-data";
 import { absoluteSlopeText, ppmSlopeText, sigmaBasisText, tempcoSentence, valueWithSigma } from "./sensitivity-text";
 import { sensitivityMethodText } from "./sensitivity-card";
 
@@ -20,6 +22,7 @@ export function SensitivityReportSection({ report }: { report: SensitivityReport
     ],
     ["Temperature coefficient", ppmSlopeText(current.tempco, "ppm/K") ?? "not measured", tempcoSentence(current.tempco, current.predictedTempco)],
   ];
+  const charts = [scatterSeries(current, "supply"), scatterSeries(current, "temperature")].filter((c) => c !== null);
   return (
     <div className="space-y-3">
       <table className="w-full text-left text-sm">
@@ -36,6 +39,11 @@ export function SensitivityReportSection({ report }: { report: SensitivityReport
           ))}
         </tbody>
       </table>
+      {charts.map((series) => (
+        <div key={series.variable} className="print:break-inside-avoid print:[&_figcaption>p:last-child]:hidden print:[&_figure>div:first-child]:hidden">
+          <SensitivityScatterChart series={series} height={200} />
+        </div>
+      ))}
       {report.repeatSets.length > 0 ? (
         <div className="print:break-inside-avoid">
           <h3 className="mb-1 text-sm font-semibold text-ink">Run-to-run stability</h3>
