@@ -139,7 +139,9 @@ function analyzeRecord(
 
   // First pass: frequency from the raw record, harmonics there, and the record with them removed.
   // A milli-bin is close enough to take the harmonics out; the second fit does the fine work.
-  let first = fitSine4(y, sampleRateHz, coarseHz, { toleranceBins: 1e-3 });
+  // The statistics pass above summed y and y² just as the fit would: it need not do so again.
+  const spanSums = { sum, sumOfSquares };
+  let first = fitSine4(y, sampleRateHz, coarseHz, { toleranceBins: 1e-3, spanSums });
   const t3 = now();
   const cleaned = new Float64Array(n);
   let passes = passesFrom(y, sampleRateHz, first, maxOrder, compare, cleaned);
@@ -152,7 +154,7 @@ function analyzeRecord(
   // if the whole record's spectrum peaks elsewhere and a fit from there explains more, start again there.
   const fullPeakHz = coarsePeakHz(spectrum);
   if (fullPeakHz !== undefined && Math.abs(fullPeakHz - first.frequencyHz) > 3 * (sampleRateHz / spectrum.segmentLength)) {
-    const again = fitSine4(y, sampleRateHz, fullPeakHz, { toleranceBins: 1e-3 });
+    const again = fitSine4(y, sampleRateHz, fullPeakHz, { toleranceBins: 1e-3, spanSums });
     if (again.residualSumOfSquares < first.residualSumOfSquares) {
       first = again;
       passes = passesFrom(y, sampleRateHz, first, maxOrder, compare, cleaned);

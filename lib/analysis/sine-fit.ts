@@ -38,6 +38,11 @@ export interface SineFitOptions {
    * squares the error, so a tight stop costs at most one pass more.
    */
   toleranceBins?: number;
+  /**
+   * Σy and Σy² over the span when the caller has already summed them, in index order from the
+   * span's first sample as the fit would (then the fit skips that pass and its numbers do not change).
+   */
+  spanSums?: { sum: number; sumOfSquares: number };
 }
 
 // Sums of the four columns [cos ωm, sin ωm, 1, ∂/∂ω] against each other and the data.
@@ -214,8 +219,9 @@ function makeNormalSums(
   y: Float64Array,
   start: number,
   length: number,
+  spanSums?: { sum: number; sumOfSquares: number },
 ): (omega: number, a: number, b: number, c: number) => NormalSums {
-  const { sumY, sumY2 } = plainSums(y, start, length);
+  const { sumY, sumY2 } = spanSums ? { sumY: spanSums.sum, sumY2: spanSums.sumOfSquares } : plainSums(y, start, length);
   const m2 = (length * (length * length - 1)) / 12;
   let cachedOmega = NaN;
   let cached: Float64Array = new Float64Array(4);
@@ -340,7 +346,7 @@ export function fitSine4(
   const binRad = (2 * Math.PI) / length;
   const toleranceRad = (options.toleranceBins ?? 1e-9) * binRad;
   let omega = (2 * Math.PI * initialFrequencyHz) / sampleRateHz;
-  const normalSums = makeNormalSums(y, start, length);
+  const normalSums = makeNormalSums(y, start, length, options.spanSums);
   let sums = normalSums(omega, 0, 0, 0);
   let abc = solveThree(sums);
   let iterations = 0;
