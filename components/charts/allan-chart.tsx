@@ -24,6 +24,11 @@ function sci(value: number): string {
   return value.toExponential(1).replace("-", "\u2212");
 }
 
+// A log axis cannot show 0 (a noiseless synthetic record): leave such values out rather than break the scale.
+function positive(v: number): number | null {
+  return v > 0 && Number.isFinite(v) ? v : null;
+}
+
 /** Vertical bars from lowerAdev to upperAdev at each τ (canvas pixels). */
 function intervalPlugin(points: AllanChartPoint[]): uPlot.Plugin {
   return {
@@ -36,6 +41,7 @@ function intervalPlugin(points: AllanChartPoint[]): uPlot.Plugin {
           ctx.strokeStyle = chartColors.traceB;
           ctx.lineWidth = 1.25 * ratio;
           for (const p of points) {
+            if (!(p.lowerAdev > 0)) continue;
             const x = u.valToPos(p.tauS, "x", true);
             const y0 = u.valToPos(p.lowerAdev, "y", true);
             const y1 = u.valToPos(p.upperAdev, "y", true);
@@ -60,9 +66,9 @@ export function AllanChart({ points, height = 240 }: AllanChartProps) {
   const data = useMemo<uPlot.AlignedData>(
     () => [
       points.map((p) => p.tauS),
-      points.map((p) => (p.atFloor ? null : p.adev)),
-      points.map((p) => (p.atFloor ? p.adev : null)),
-      points.map((p) => p.floorAdev),
+      points.map((p) => (p.atFloor ? null : positive(p.adev))),
+      points.map((p) => (p.atFloor ? positive(p.adev) : null)),
+      points.map((p) => positive(p.floorAdev)),
     ],
     [points],
   );
