@@ -87,6 +87,10 @@ function parseArguments(argv: string[]): Arguments {
 // Files this large have their second half parsed on the worker thread while this one parses the
 // first; below it the worker's start-up takes longer than the half it would save.
 const PARALLEL_PARSE_BYTES = 4 << 20;
+// The worker's share of the bytes left at the split: a little over half, as this thread also reads
+// the file for itself and takes the worker's rows in (10M-sample profiles: at one half the worker
+// finished its part 0.2-0.4 s before this thread).
+const WORKER_SHARE = 0.55;
 
 /**
  * Hands the data rows from the next line feed after halfway through what is left to the worker,
@@ -96,7 +100,7 @@ const PARALLEL_PARSE_BYTES = 4 << 20;
 function startSecondHalf(worker: Worker, fd: number, path: string, importer: CaptureImporter, position: number, size: number) {
   const known = importer.rowLayout();
   if (!known || known.rowsSoFar < 2 || size - position < PARALLEL_PARSE_BYTES / 2) return undefined;
-  const middle = position + Math.floor((size - position) / 2);
+  const middle = position + Math.floor((size - position) * WORKER_SHARE);
   const probe = new Uint8Array(1 << 16);
   const newline = probe.subarray(0, readSync(fd, probe, 0, probe.length, middle)).indexOf(0x0a);
   if (newline < 0) return undefined;
