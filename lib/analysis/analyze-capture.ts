@@ -286,9 +286,10 @@ function passesFrom(
   cleaned: Float64Array,
 ) {
   const n = y.length;
-  fitHarmonics(y, first.omegaRadPerSample, maxOrder, { cleanedOut: cleaned });
+  const { cleanedSums } = fitHarmonics(y, first.omegaRadPerSample, maxOrder, { cleanedOut: cleaned });
   // Second pass: harmonics leak into a single-sine fit and bias it; fitting the cleaned record removes that.
-  const fit = fitSine4(cleaned, sampleRateHz, first.frequencyHz);
+  // The harmonic fit summed the cleaned record as it wrote it, over the whole of it: the fit need not again.
+  const fit = fitSine4(cleaned, sampleRateHz, first.frequencyHz, { spanSums: cleanedSums });
   // The compared channel shares the pass: same frequency, same columns.
   const [harmonicFit, compareFit] = fitHarmonicsOfChannels(compare ? [y, compare.samples] : [y], fit.omegaRadPerSample, maxOrder);
 

@@ -33,6 +33,11 @@ export interface HarmonicFit {
   parameters: number;
   start: number;
   length: number;
+  /**
+   * Σ and Σ² of the cleaned record over the span, summed in index order as it was written, when
+   * `cleanedOut` was given (for {@link SineFitOptions.spanSums} of a fit of it).
+   */
+  cleanedSums?: { sum: number; sumOfSquares: number };
 }
 
 /** Options for {@link fitHarmonics}. */
@@ -340,7 +345,7 @@ function residuals(
   sinV: Float64Array,
   orders: readonly number[],
   cleaned: Float64Array | undefined,
-): { noise: number; noiseAndDistortion: number } {
+): { noise: number; noiseAndDistortion: number; cleanedSum: number; cleanedSumOfSquares: number } {
   const orderCount = cosV.length;
   const centre = (length - 1) / 2;
   const block = BLOCK_SAMPLES;
@@ -348,6 +353,8 @@ function residuals(
   const fundamental = new Float64Array(block);
   let noise = 0;
   let noiseAndDistortion = 0;
+  let cleanedSum = 0;
+  let cleanedSumOfSquares = 0;
   for (let first = 0; first < length; first += block) {
     const count = Math.min(block, length - first);
     const half = count >> 1;
@@ -385,10 +392,15 @@ function residuals(
       noiseAndDistortion += nad * nad;
     }
     if (cleaned) {
-      for (let j = 0; j < count; j++) cleaned[offset + j] = y[offset + j] - dcV - distortion[j];
+      for (let j = 0; j < count; j++) {
+        const v = y[offset + j] - dcV - distortion[j];
+        cleaned[offset + j] = v;
+        cleanedSum += v;
+        cleanedSumOfSquares += v * v;
+      }
     }
   }
-  return { noise, noiseAndDistortion };
+  return { noise, noiseAndDistortion, cleanedSum, cleanedSumOfSquares };
 }
 
 /**
@@ -478,8 +490,11 @@ export function fitHarmonicsOfChannels(
     const cleaned = channel === 0 ? options.cleanedOut : undefined;
     // The subtraction loses digits when the residual is tiny against the signal (SNR beyond
     // ~90 dB); then, or when the cleaned record is wanted, take the residual sample by sample.
+    let cleanedSums: HarmonicFit["cleanedSums"];
     if (cleaned !== undefined || !(noise > 1e-9 * sumOfSquares)) {
-      ({ noise, noiseAndDistortion } = residuals(y, start, length, omega, dcV, cosV, sinV, orders, cleaned));
+      const sums = residuals(y, start, length, omega, dcV, cosV, sinV, orders, cleaned);
+      ({ noise, noiseAndDistortion } = sums);
+      if (cleaned) cleanedSums = { sum: sums.cleanedSum, sumOfSquares: sums.cleanedSumOfSquares };
     }
     return {
       omegaRadPerSample: omega,
@@ -496,6 +511,7 @@ export function fitHarmonicsOfChannels(
       parameters: 1 + 2 * orderCount,
       start,
       length,
+      ...(cleanedSums ? { cleanedSums } : {}),
     };
   });
 }
