@@ -106,5 +106,9 @@ function run(job: ParseJob | SpectrumJob): void {
 }
 
 parentPort?.on("message", run);
+// Before saying so: compile the spectrum code and build the head's plan, as the head's spectrum is
+// asked for the moment the import ends, and the main thread waits for it (70-110 ms when computed
+// cold under load); meanwhile the main thread goes on parsing, and splits later.
+prepareWindowedSpectrum(1 << 16);
 // Loaded and listening: the main thread splits the rows left at this moment.
 if (workerData?.ready) Atomics.store(new Int32Array(workerData.ready as SharedArrayBuffer), 0, 1);
