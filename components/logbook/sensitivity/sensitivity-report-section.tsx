@@ -17,7 +17,7 @@ export function SensitivityReportSection({ report }: { report: SensitivityReport
     ],
     [
       "Amplitude against supply",
-      current.amplitudePushing.measured ? valueWithSigma(current.amplitudePushing.slope, current.amplitudePushing.slopeSigma, "V/V") : "not measured",
+      current.amplitudePushing.measured ? valueWithSigma(current.amplitudePushing.slope * 1000, current.amplitudePushing.slopeSigma * 1000, "mV/V") : "not measured",
       current.amplitudePushing.measured ? (sigmaBasisText(current.amplitudePushing) ?? "") : current.amplitudePushing.reason,
     ],
     ["Temperature coefficient", ppmSlopeText(current.tempco, "ppm/K") ?? "not measured", tempcoSentence(current.tempco, current.predictedTempco)],

@@ -90,11 +90,17 @@ export function conditionText(set: Pick<RepeatSetReport, "supplyV" | "temperatur
   return `${supply}, ${temperature}`;
 }
 
+/** A reduced χ² to three figures, without exponent form ("0.0629", "11300"). */
+function chiText(value: number | null): string {
+  if (value === null || !Number.isFinite(value)) return DASH;
+  return value >= 1000 ? String(Math.round(Number(value.toPrecision(3)))) : String(Number(value.toPrecision(3)));
+}
+
 /** The verdict of a repeat set in words. */
 export function repeatVerdictText(set: RepeatSetReport, level: number): string {
   if (set.reason) return `not tested: ${set.reason}`;
   const p = set.pValue !== null ? (set.pValue < 1e-4 ? "p < 0.0001" : `p = ${set.pValue.toPrecision(2)}`) : "";
   return set.flagged
-    ? `scatter larger than the runs' uncertainties explain (χ²ν = ${set.reducedChiSquare?.toPrecision(3)}, ${p} < ${level}): the build is unstable or something in the set-up moved`
-    : `scatter within the runs' uncertainties (χ²ν = ${set.reducedChiSquare?.toPrecision(3)}, ${p})`;
+    ? `scatter larger than the runs' uncertainties explain (χ²ν = ${chiText(set.reducedChiSquare)}, ${p} < ${level}): the build is unstable or something in the set-up moved`
+    : `scatter within the runs' uncertainties (χ²ν = ${chiText(set.reducedChiSquare)}, ${p})`;
 }
