@@ -69,8 +69,24 @@ describe("the period-jitter floor", () => {
     expect(raw / expected).toBeGreaterThan(0.95);
     expect(raw / expected).toBeLessThan(1.05);
     const withFloor = periodJitter(y, FS, omega, 1, 0, noise);
-    expect(withFloor.floorRmsPeriodJitterS! / expected).toBeCloseTo(1, 9);
+    // Summed from each crossing's own position, which visit [0, 1) evenly here: the average 2/3 to a percent.
+    expect(withFloor.floorRmsPeriodJitterS! / expected).toBeCloseTo(1, 2);
     expect(withFloor.atFloor).toBe(true);
+  });
+
+  it("follows the crossing position when every crossing sits at the same one (81.0000 samples a period)", () => {
+    const random = new SeededRandom(2417);
+    const noise = 3e-3;
+    const y = toneWithPhase(new Float64Array(N), noise, random);
+    const omega = (2 * Math.PI * F0) / FS;
+    const crossings = risingCrossings(y, omega, 0, 4 * noise);
+    const periods = Array.from(crossings.subarray(1), (c, i) => (c - crossings[i]) / FS);
+    const mean = periods.reduce((a, b) => a + b, 0) / periods.length;
+    const raw = Math.sqrt(periods.reduce((a, p) => a + (p - mean) ** 2, 0) / (periods.length - 1));
+    const pj = periodJitter(y, FS, omega, 1, 0, noise);
+    expect(raw / pj.floorRmsPeriodJitterS!).toBeGreaterThan(0.95);
+    expect(raw / pj.floorRmsPeriodJitterS!).toBeLessThan(1.05);
+    expect(pj.atFloor).toBe(true);
   });
 
   it("says why when the record holds too few periods", () => {

@@ -36,7 +36,7 @@ export function StabilityFigures({ stability }: { stability: StabilityResult }) 
             <Wrap>{`${bound(jitter.atFloor)}${formatQuantity(jitter.rmsPhaseRad, "rad", 3)} over ${formatQuantity(jitter.bandLowHz, "Hz", 2)}–${formatQuantity(jitter.bandHighHz, "Hz", 3)}`}</Wrap>
           )
         }
-        note={noteFor(jitter.reason, jitter.atFloor, jitter.floorRmsJitterS === null ? null : formatQuantity(jitter.floorRmsJitterS, "s", 2))}
+        note={noteFor(jitter.reason, jitter.atFloor, jitter.floorRmsJitterS === null ? null : formatQuantity(jitter.floorRmsJitterS, "s", 3))}
       />
       <MetricTile
         label={firstPoint ? `Phase noise at ${formatQuantity(firstPoint.offsetHz, "Hz", 2, { trimZeros: true })}` : "Phase noise"}

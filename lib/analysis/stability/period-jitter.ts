@@ -36,10 +36,11 @@ export function risingCrossings(y: Float64Array, omegaRadPerSample: number, offs
  * of adjacent periods), IEEE Std 2414-2020 terms, from the fundamental's rising zero crossings.
  *
  * The floor: additive noise of σ per sample moves a linearly interpolated crossing by
- * σ·√(u² + (1−u)²)/slope for a crossing at fraction u between samples, 2/3·σ²/slope² on average
- * (derived, averaged over crossing positions; a record with a near-whole number of samples a period
- * keeps one position, and its floor lies between ½ and 1 of σ²/slope² instead); adjacent crossings
- * are a period apart and independent, so periods carry √2 of it and cycle-to-cycle differences √6.
+ * σ·√(u² + (1−u)²)/slope for a crossing at fraction u between samples (derived; 2/3·σ²/slope² on
+ * average over u, but a record with a near-whole number of samples a period keeps one u, anywhere
+ * from ½ to 1 of it), so the floor is summed crossing by crossing from each one's own u: a period's
+ * variance is v_i + v_{i+1}, a cycle-to-cycle difference's v_i + 4v_{i+1} + v_{i+2} (adjacent
+ * crossings are a period apart, their noise independent).
  *
  * @param y - the record with harmonics removed (volts)
  * @param additiveNoiseVrms - the additive noise per sample (from the phase-noise floor)
@@ -85,9 +86,20 @@ export function periodJitter(
   const rmsPeriod = Math.sqrt(sumSquares / (periods - 1));
   const rmsC2c = Math.sqrt(diffSquares / (periods - 1));
   const slopeVPerSample = amplitudeVpk * omegaRadPerSample;
-  const crossingS = Math.sqrt(2 / 3) * (additiveNoiseVrms / slopeVPerSample) / sampleRateHz;
-  const floorPeriod = Math.SQRT2 * crossingS;
-  const floorC2c = Math.sqrt(6) * crossingS;
+  const unitS2 = (additiveNoiseVrms / slopeVPerSample / sampleRateHz) ** 2;
+  const v = new Float64Array(crossings.length);
+  for (let i = 0; i < v.length; i++) {
+    const u = crossings[i] - Math.floor(crossings[i]);
+    v[i] = (u * u + (1 - u) * (1 - u)) * unitS2;
+  }
+  let periodFloorSum = 0;
+  let c2cFloorSum = 0;
+  for (let i = 0; i < periods; i++) {
+    periodFloorSum += v[i] + v[i + 1];
+    if (i + 2 < v.length) c2cFloorSum += v[i] + 4 * v[i + 1] + v[i + 2];
+  }
+  const floorPeriod = Math.sqrt(periodFloorSum / periods);
+  const floorC2c = Math.sqrt(c2cFloorSum / Math.max(1, periods - 1));
   const atFloor = rmsPeriod * rmsPeriod < floorPeriod * floorPeriod * floorMargin(periods - 1);
   const reported = atFloor ? floorPeriod : rmsPeriod;
   return {
