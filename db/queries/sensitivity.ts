@@ -42,7 +42,7 @@ interface Row {
 export const SENSITIVITY_RUN_LIMIT = 1000;
 
 /**
- * A build's analysed runs, oldest first, in one query: only what pushing, tempco and run-to-run stability need,
+ * A build's analysed runs that are not withdrawn, oldest first, in one query: only what pushing, tempco and run-to-run stability need,
  * with the warning codes pulled out of the results in SQL so the whole result object never leaves the database.
  */
 export async function listSensitivityRuns(buildId: string, trx: Knex | Knex.Transaction = db()): Promise<SensitivityRunRow[]> {
@@ -51,6 +51,8 @@ export async function listSensitivityRuns(buildId: string, trx: Knex | Knex.Tran
     .from(
       trx("runs as r")
         .where({ "r.build_id": buildId, "r.status": "done" })
+        // A withdrawn run is kept in the log but leaves every figure of the build, these included.
+        .whereNull("r.withdrawn_at")
         .select(
           "r.id",
           "r.created_at",
