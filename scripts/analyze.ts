@@ -150,7 +150,7 @@ function importFile(path: string, worker?: Worker) {
         importer.push(buffer.subarray(0, read));
         // Split only once the worker is up: halving what is left then keeps the two halves even
         // however long its start-up took (a fixed split left this thread waiting for it).
-        if (parallel && !secondHalf && end === Infinity && workerReady.get(worker)?.[0] === 1) {
+        if (parallel && !secondHalf && end === Infinity && isReady(worker)) {
           secondHalf = startSecondHalf(worker, fd, path, importer, position, stat.size);
           if (secondHalf) end = secondHalf.startByte;
         }
@@ -239,6 +239,16 @@ const WORKER_WAIT_MS = 120_000;
 
 /** Per worker, a shared flag it sets to 1 once it is loaded and listening. */
 const workerReady = new WeakMap<Worker, Int32Array>();
+// For tests of the two-thread import on small files, which this thread would otherwise read
+// whole before the worker is up: wait (up to the usual two seconds) for the worker at the first chunk.
+const WAIT_FOR_WORKER = process.env.TANKBOOK_ANALYZE_WAIT_FOR_WORKER === "1";
+
+function isReady(worker: Worker): boolean {
+  const flag = workerReady.get(worker);
+  if (!flag) return false;
+  if (WAIT_FOR_WORKER) Atomics.wait(flag, 0, 0, WORKER_START_MS);
+  return Atomics.load(flag, 0) === 1;
+}
 
 /** The spectrum worker, started before the file is read so its start-up overlaps the import. */
 function startSpectrumWorker(): Worker | undefined {
