@@ -20,8 +20,9 @@ export interface AllanChartProps {
   height?: number;
 }
 
-function sci(value: number): string {
-  return value.toExponential(1).replace("-", "\u2212");
+// uPlot passes null for the log axis's ticks it leaves unlabelled.
+function sci(value: number | null): string {
+  return value === null || !Number.isFinite(value) ? "" : value.toExponential(1).replace("-", "\u2212");
 }
 
 // A log axis cannot show 0 (a noiseless synthetic record): leave such values out rather than break the scale.
@@ -76,7 +77,7 @@ export function AllanChart({ points, height = 240 }: AllanChartProps) {
     () => ({
       scales: { x: { time: false, distr: 3, log: 10 }, y: { distr: 3, log: 10 } },
       axes: [
-        themedAxis({ label: "Averaging time τ", values: (_u, splits) => splits.map((v) => formatQuantity(v, "s", 2, { trimZeros: true })) }),
+        themedAxis({ label: "Averaging time τ", values: (_u, splits) => splits.map((v) => (v == null ? "" : formatQuantity(v, "s", 2, { trimZeros: true }))) }),
         themedAxis({ label: "σ_y(τ)", size: 64, values: (_u, splits) => splits.map(sci) }),
       ],
       series: [

@@ -17,8 +17,9 @@ export interface PhaseNoiseChartProps {
 }
 
 /** A log axis shows decades: "100 Hz", "10 kHz". */
-function decadeLabel(hz: number): string {
-  return formatQuantity(hz, "Hz", 2, { trimZeros: true });
+function decadeLabel(hz: number | null): string {
+  // uPlot passes null for the log axis's ticks it leaves unlabelled.
+  return hz == null ? "" : formatQuantity(hz, "Hz", 2, { trimZeros: true });
 }
 
 /**
@@ -37,7 +38,7 @@ export function PhaseNoiseChart({ offsetHz, dbcPerHz, floorDbcPerHz, atFloor, he
       scales: { x: { time: false, distr: 3, log: 10 }, y: { range: (_u, min, max) => [Math.floor((min - 5) / 10) * 10, Math.ceil((max + 5) / 10) * 10] } },
       axes: [
         themedAxis({ label: "Offset from the carrier", values: (_u, splits) => splits.map(decadeLabel) }),
-        themedAxis({ label: "𝓛(f) (dBc/Hz)", size: 56, values: (_u, splits) => splits.map((v) => typographicMinus(v.toFixed(0))) }),
+        themedAxis({ label: "𝓛(f) (dBc/Hz)", size: 56, values: (_u, splits) => splits.map((v) => (v == null ? "" : typographicMinus(v.toFixed(0)))) }),
       ],
       series: [
         {},
