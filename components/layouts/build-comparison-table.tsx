@@ -19,6 +19,7 @@ const link = "underline-offset-2 hover:text-copper hover:underline";
 
 /** Builds as columns, figures as rows, so a phone scrolls sideways through builds rather than squeezing numbers. */
 export function BuildComparisonTable({ builds }: BuildComparisonTableProps) {
+  const anyStability = builds.some((b) => b.stability.measured);
   const orders = [...new Set(builds.flatMap((b) => b.latestRun?.harmonics.map((h) => h.order) ?? []))].sort((a, b) => a - b).slice(0, 8);
   const row = (label: string, cell: (b: ComparedBuild) => React.ReactNode, numeric = true) => (
     <Tr>
@@ -122,42 +123,16 @@ export function BuildComparisonTable({ builds }: BuildComparisonTableProps) {
             })}
           </Tr>
         ))}
-        {row("rms jitter", (b) => <Stability b={b} value={(s) => (s.rmsJitterS !== null ? formatQuantity(s.rmsJitterS, "s", 3) : null)} why={(s) => s.jitterReason} />)}
-        {row("Phase noise", (b) => (
-          <Stability
-            b={b}
-            value={(s) =>
-              s.phaseNoise.length > 0 ? (
-                <ul>
-                  {s.phaseNoise.slice(0, 5).map((p) => (
-                    <li key={p.offsetHz} className="whitespace-nowrap">
-                      {formatQuantity(p.offsetHz, "Hz", 3, { trimZeros: true })}: {p.atFloor ? "≤ " : ""}
-                      {formatDecibels(p.dbcPerHz, "dBc/Hz")}
-                    </li>
-                  ))}
-                </ul>
-              ) : null
-            }
-            why={() => "not measured on this capture"}
-          />
-        ))}
-        {row("Allan deviation", (b) => (
-          <Stability
-            b={b}
-            value={(s) =>
-              s.allan.length > 0 ? (
-                <ul>
-                  {s.allan.slice(0, 4).map((p) => (
-                    <li key={p.tauS} className="whitespace-nowrap">
-                      τ {formatQuantity(p.tauS, "s", 3, { trimZeros: true })}: {p.adev.toExponential(2).replace("-", "−")}
-                    </li>
-                  ))}
-                </ul>
-              ) : null
-            }
-            why={() => "not measured on this capture"}
-          />
-        ))}
+        {anyStability ? (
+          <>
+            {row("rms jitter", (b) => <Stability b={b} value={jitterValue} why={(s) => s.jitterReason} />)}
+            {row("Phase noise", (b) => <Stability b={b} value={phaseNoiseValue} why={() => "not measured on this capture"} />)}
+            {row("Allan deviation", (b) => <Stability b={b} value={allanValue} why={() => "not measured on this capture"} />)}
+          </>
+        ) : (
+          // No compared run holds stability figures: one row says so, not three.
+          row("Stability", (b) => <Stability b={b} value={() => null} why={() => null} />)
+        )}
         {row(
           "Trust warnings",
           (b) => (b.latestRun ? (b.latestRun.warningCodes.length > 0 ? `⚠ ${b.latestRun.warningCodes.join(", ")}` : "none") : DASH),
@@ -167,6 +142,34 @@ export function BuildComparisonTable({ builds }: BuildComparisonTableProps) {
     </Table>
   );
 }
+
+type StabilityFigures = ComparedBuild["stability"];
+
+const jitterValue = (s: StabilityFigures) => (s.rmsJitterS !== null ? formatQuantity(s.rmsJitterS, "s", 3) : null);
+
+/** Up to five offsets; a point at the capture's floor is an upper bound ("≤"), never a measurement. */
+const phaseNoiseValue = (s: StabilityFigures) =>
+  s.phaseNoise.length > 0 ? (
+    <ul>
+      {s.phaseNoise.slice(0, 5).map((p) => (
+        <li key={p.offsetHz} className="whitespace-nowrap">
+          {formatQuantity(p.offsetHz, "Hz", 3, { trimZeros: true })}: {p.atFloor ? "≤ " : ""}
+          {formatDecibels(p.dbcPerHz, "dBc/Hz")}
+        </li>
+      ))}
+    </ul>
+  ) : null;
+
+const allanValue = (s: StabilityFigures) =>
+  s.allan.length > 0 ? (
+    <ul>
+      {s.allan.slice(0, 4).map((p) => (
+        <li key={p.tauS} className="whitespace-nowrap">
+          τ {formatQuantity(p.tauS, "s", 3, { trimZeros: true })}: {p.adev.toExponential(2).replace("-", "−")}
+        </li>
+      ))}
+    </ul>
+  ) : null;
 
 /** One stability figure of a compared run, or "not measured" with the reason (never 0). */
 function Stability({
@@ -185,7 +188,7 @@ function Stability({
   return (
     <span>
       not measured
-      <span className="block max-w-[14rem] text-[11px] text-ink-faint">{s.measured ? why(s) : s.reason}</span>
+      <span className="ml-auto block max-w-[14rem] text-[11px] text-ink-faint">{s.measured ? why(s) : s.reason}</span>
     </span>
   );
 }

@@ -54,6 +54,11 @@ const C_MAX_F = 10e-6;
 /** In a Clapp the divider is this many times C3, so C3 sets the frequency (C_eq → C3 as C1, C2 grow). */
 const CLAPP_DIVIDER_FACTOR = 10;
 const DEFAULT_REACTANCE_OHM = 200;
+/**
+ * How far C2/C1 may stray from the ratio asked (a factor): the divider sets the feedback fraction and the start-up
+ * gain, so a pair that hits the frequency by skewing it is only taken when no pair near the ratio comes close.
+ */
+const RATIO_SLACK = 1.5;
 
 /** A preferred value and its two neighbours: the three a rounding can land on. */
 function around(value: number, series: ESeriesName): number[] {
@@ -110,8 +115,10 @@ function bestCapacitors(input: Required<Pick<ValueProposalInput, "topology" | "t
     if (!(c3Exact > 0) || !Number.isFinite(c3Exact)) return null;
     for (const c3 of around(c3Exact, series)) candidates.push({ ...inductances, C1: c1, C2: c2, C3: c3 });
   }
+  const nearRatio = (v: Record<string, number>) => v.C1 === undefined || v.C2 === undefined || Math.abs(Math.log(v.C2 / v.C1 / r)) <= Math.log(RATIO_SLACK);
+  const kept = candidates.some(nearRatio) ? candidates.filter(nearRatio) : candidates;
   let best: ValueProposal | null = null;
-  for (const values of candidates) {
+  for (const values of kept) {
     const p = evaluate(topology, values, labF, targetHz, lEffH);
     if (!best || Math.abs(p.errorPpm) < Math.abs(best.errorPpm)) best = p;
   }

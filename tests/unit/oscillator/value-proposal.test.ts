@@ -32,6 +32,9 @@ describe("proposeValues", () => {
       expect(p.predictedHz / f0(L, series2(C1, C2) + labF) - 1).toBeCloseTo(0, 12);
       // Two E12 capacitors bracket any C_eff within a few %: the best pair lands within 5 % of the target.
       expect(Math.abs(p.errorPpm)).toBeLessThan(50_000);
+      // The divider keeps near the C2/C1 = 2 asked (it sets the feedback fraction and the start-up gain).
+      expect(C2 / C1).toBeGreaterThan(2 / 1.5);
+      expect(C2 / C1).toBeLessThan(2 * 1.5);
     }
     // Ignoring the lab's figure would aim the bare model at the target and the board below it.
     const bare = proposeValues({ topology: "colpitts", targetHz, series: "E12", fixed: { L: proposals[0].values.L }, dividerRatio: 2 })[0];
