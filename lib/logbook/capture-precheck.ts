@@ -27,8 +27,16 @@ async function readObjectStart(objectKey: string, limitBytes: number): Promise<U
  * @throws BadRequestError naming what the importer could not read
  */
 export async function refuseUnreadableCapture(objectKey: string, sizeBytes: number): Promise<void> {
-  const start = await readObjectStart(objectKey, SNIFF_BYTES);
-  const result = checkCaptureStart(start, sizeBytes <= SNIFF_BYTES);
+  await refuseUnreadableStart(objectKey, await readObjectStart(objectKey, SNIFF_BYTES), sizeBytes);
+}
+
+/**
+ * {@link refuseUnreadableCapture} on the first bytes already in hand (kept while the upload streamed through), so
+ * the object is not read back from storage.
+ * @param start - the file's first min(SNIFF_BYTES, size) bytes
+ */
+export async function refuseUnreadableStart(objectKey: string, start: Uint8Array, sizeBytes: number): Promise<void> {
+  const result = checkCaptureStart(start.subarray(0, SNIFF_BYTES), sizeBytes <= SNIFF_BYTES);
   if (result.ok) return;
   await deleteObject(objectKey).catch(() => undefined);
   throw new BadRequestError(`This file cannot be analysed, so no run was logged: ${result.message}`, { file: [result.message] });

@@ -1,5 +1,5 @@
 import { randomUUID } from "node:crypto";
-import { Writable, type Readable } from "node:stream";
+import { Transform, Writable, type Readable } from "node:stream";
 import { pipeline } from "node:stream/promises";
 import { db } from "@/db/index";
 import { getBuild, getBuildForUpdate } from "@/db/queries/builds";
@@ -15,7 +15,8 @@ import { analyseDrift, type DriftAnalysis } from "@/lib/oscillator";
 import { captureObjectKey, deleteObject, headObject, presignGet, putObject } from "@/lib/storage";
 import type { RunMetadata } from "@/lib/validations/run";
 import { checkCaptureFile, checkCaptureSize, formatBytes, meterStream, sha256OfObject, uploadLimitBytes } from "./capture-files";
-import { refuseUnreadableCapture } from "./capture-precheck";
+import { refuseUnreadableCapture, refuseUnreadableStart } from "./capture-precheck";
+import { SNIFF_BYTES } from "@/lib/capture-sniff/sniff-header";
 import { audit, isId, type Actor } from "./context";
 import { oscillatorDesign, runSnapshot } from "./prediction";
 
@@ -36,6 +37,11 @@ export interface RegisterRunInput {
   expectedSizeBytes?: number;
   /** Already computed while streaming (API upload); otherwise computed here by streaming the object. */
   sha256?: string;
+  /**
+   * What the streamed upload itself stored: its size and first bytes. Storage then needs no HEAD and no read-back
+   * for the size and readability checks (a presigned upload has neither, so those go to storage).
+   */
+  stored?: { sizeBytes: number; start: Uint8Array };
   meta: RunMetadata;
   /** Idempotency-Key of the API request, saved with the run in one transaction. */
   idempotencyKey?: string;
@@ -93,7 +99,7 @@ export async function registerRun(actor: Actor, input: RegisterRunInput): Promis
   const user = requirePermission(actor.user, "run:upload");
   const build = isId(input.buildId) ? await getBuild(input.buildId) : null;
   if (!build) throw new NotFoundError("The build");
-  const info = await headObject(input.objectKey);
+  const info = input.stored ? { sizeBytes: input.stored.sizeBytes } : await headObject(input.objectKey);
   if (!info) throw new BadRequestError("The file has not arrived in storage yet: upload it first, then register it.", { file: ["not uploaded"] });
   if (info.sizeBytes > uploadLimitBytes()) {
     await deleteObject(input.objectKey);
@@ -105,7 +111,8 @@ export async function registerRun(actor: Actor, input: RegisterRunInput): Promis
     });
   }
   if (info.sizeBytes === 0) throw new BadRequestError("The file is empty.", { file: ["empty"] });
-  await refuseUnreadableCapture(input.objectKey, info.sizeBytes);
+  if (input.stored) await refuseUnreadableStart(input.objectKey, input.stored.start, info.sizeBytes);
+  else await refuseUnreadableCapture(input.objectKey, info.sizeBytes);
   const sha256 = input.sha256 ?? (await sha256OfObject(input.objectKey));
 
   try {
@@ -180,6 +187,23 @@ export async function registerRun(actor: Actor, input: RegisterRunInput): Promis
   }
 }
 
+/** A pass-through that keeps a copy of the first `limitBytes` it passes on. */
+function keepStart(limitBytes: number): { stream: Transform; bytes(): Uint8Array } {
+  const chunks: Buffer[] = [];
+  let kept = 0;
+  const stream = new Transform({
+    transform(chunk: Buffer, _encoding, done) {
+      if (kept < limitBytes) {
+        const part = chunk.subarray(0, limitBytes - kept);
+        chunks.push(Buffer.from(part));
+        kept += part.length;
+      }
+      done(null, chunk);
+    },
+  });
+  return { stream, bytes: () => new Uint8Array(Buffer.concat(chunks)) };
+}
+
 export interface StreamUploadInput {
   buildId: string;
   filename: string;
@@ -226,8 +250,10 @@ export async function uploadRunFromStream(actor: Actor, input: StreamUploadInput
   const runId = randomUUID();
   const key = captureObjectKey(runId);
   const metered = meterStream(input.stream, uploadLimitBytes());
+  const start = keepStart(SNIFF_BYTES);
+  metered.stream.on("error", (err) => start.stream.destroy(err));
   try {
-    await putObject(key, metered.stream, "text/csv");
+    await putObject(key, metered.stream.pipe(start.stream), "text/csv");
   } catch (err) {
     input.stream.resume();
     await deleteObject(key).catch(() => undefined);
@@ -246,6 +272,7 @@ export async function uploadRunFromStream(actor: Actor, input: StreamUploadInput
       originalFilename: input.filename,
       expectedSizeBytes: sizeBytes,
       sha256,
+      stored: { sizeBytes, start: start.bytes() },
       meta: await input.meta,
       idempotencyKey: input.idempotencyKey,
     });
