@@ -31,7 +31,7 @@ export function registerLayoutPaths(registry: OpenAPIRegistry): void {
     summary: "What the lab's constructions add",
     description:
       "Per construction kind (PCBs per revision) and topology: the implied extra capacitance of the builds whose value held across their " +
-      "tweaks, over runs without trust warnings — median, scaled MAD (× 1.4826), count and range — with the builds behind each figure. " +
+      "tweaks, over runs without trust warnings and not withdrawn — median, scaled MAD (× 1.4826), count and range — with the builds behind each figure. " +
       "A figure on fewer than 5 steady builds is `thin`.",
     action: "read",
     query: layoutsQuerySchema,
