@@ -121,6 +121,7 @@ export class RowParser {
   /** The stamps of a `keepTimes` parser. */
   private times: Float64Array;
   private readonly quantumRuns: number[] = [];
+  private warmedUp = false;
   private readonly decoder = new TextDecoder("utf-8");
 
   /**
@@ -275,6 +276,23 @@ export class RowParser {
 
   /** Parses every line in `bytes[start, end)`; `bytes[end - 1]` must be a line feed. */
   parseLines(bytes: Uint8Array, start: number, end: number): void {
+    // The first call parses one line on its own, in the interpreter, so every statement of the
+    // loop and of what follows it has run once before the optimising compiler builds code for the
+    // loop: code built earlier stopped at the first statement it had not seen run (the stores of
+    // the state after the loop), and every 1 MB chunk then started interpreted again (11
+    // deoptimisations in a 1M-row file). Lines are independent, so the split changes nothing.
+    if (!this.warmedUp) {
+      this.warmedUp = true;
+      const firstEnd = bytes.indexOf(0x0a, start) + 1;
+      if (firstEnd > start && firstEnd < end) {
+        this.parseRegion(bytes, start, firstEnd);
+        start = firstEnd;
+      }
+    }
+    this.parseRegion(bytes, start, end);
+  }
+
+  private parseRegion(bytes: Uint8Array, start: number, end: number): void {
     // Byte values and tables as locals: module constants read inside a hot loop pay a
     // temporal-dead-zone check on every access, which costs more than the parsing itself.
     const LF = 0x0a;
