@@ -21,7 +21,6 @@ function judged(check: Omit<SpecCheck, "outcome">): SpecCheck {
 const seconds = (value: number) => formatEngineering(value, "s", 3, { trimZeros: true });
 const hertz = (value: number) => formatEngineering(value, "Hz", 3, { trimZeros: true });
 const db = (value: number) => `${value.toFixed(1).replace(/^-/, "−")} dBc/Hz`;
-const ppmPer = (value: number, unit: string) => `${value.toFixed(1).replace(/^-/, "−")} ${unit}`;
 
 const NO_STABILITY = "this capture carries no stability figures (it was analysed before they existed)";
 const REANALYSE = "re-analyse the run to compute its stability figures";
@@ -175,7 +174,9 @@ function buildSlopeCheck(rule: "pushing" | "tempco", limit: number, slope: Build
     return cannotJudge({ ...base, measured: null, margin: null, advice, message: `Cannot judge ${name} against ±${limit} ${unit}: not measured (${slope.reason}).` });
   }
   const margin = limit - Math.abs(slope.ppm);
-  const text = `${ppmPer(slope.ppm, unit)} ± ${slope.ppmSigma.toFixed(1)}`;
+  // The value to the 1σ's second significant figure, as the Sensitivity card writes it.
+  const decimals = slope.ppmSigma > 0 ? Math.min(6, Math.max(0, 1 - Math.floor(Math.log10(slope.ppmSigma)))) : 1;
+  const text = `${slope.ppm.toFixed(decimals).replace(/^-/, "−")} ± ${slope.ppmSigma.toFixed(decimals)} ${unit}`;
   if (Math.abs(margin) < slope.ppmSigma) {
     return cannotJudge({
       ...base,

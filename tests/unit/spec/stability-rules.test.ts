@@ -82,7 +82,13 @@ describe("build-level pushing and tempco rules", () => {
   const sens = (pushing: SpecMeasurements["buildSensitivity"] extends infer T ? (T extends { pushing: infer P } ? P : never) : never) => ({ pushing, tempco: { measured: false as const, reason: "no spread: every run is at 23 °C" } });
 
   it("judges |pushing| against the limit, cannot judge when the 1σ spans it", () => {
-    expect(only({ maxPushingPpmPerV: 50 }, measured({ buildSensitivity: sens({ measured: true, ppm: -30, ppmSigma: 4, runs: 5 }) }))).toMatchObject({ rule: "pushing", outcome: "pass", margin: 20, unit: "ppm/V" });
+    expect(only({ maxPushingPpmPerV: 50 }, measured({ buildSensitivity: sens({ measured: true, ppm: -30, ppmSigma: 4, runs: 5 }) }))).toMatchObject({
+      rule: "pushing",
+      outcome: "pass",
+      margin: 20,
+      unit: "ppm/V",
+      message: "The build's pushing is −30.0 ± 4.0 ppm/V over 5 runs against ±50 ppm/V: inside by 20.0 ppm/V.",
+    });
     expect(only({ maxPushingPpmPerV: 20 }, measured({ buildSensitivity: sens({ measured: true, ppm: -30, ppmSigma: 4, runs: 5 }) }))).toMatchObject({ outcome: "fail", margin: -10 });
     expect(only({ maxPushingPpmPerV: 28 }, measured({ buildSensitivity: sens({ measured: true, ppm: -30, ppmSigma: 4, runs: 5 }) }))).toMatchObject({ outcome: "cannot-judge", margin: null });
   });
