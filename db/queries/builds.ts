@@ -1,6 +1,10 @@
 import type { Knex } from "knex";
+import type { Topology, WindingSense } from "@/lib/oscillator/design";
 import type { Parts } from "./designs";
 import { db } from "../index";
+import { flagFromJsonRow, type Flag } from "./flags";
+import type { JoinedRead } from "./joined-read";
+import { tweakFromJsonRow, type Tweak } from "./tweaks";
 import type { Verdict } from "./runs";
 import { cursorColumn, likePattern, paginate, toNumber, toPage, type Page, type PageRequest } from "./pagination";
 
@@ -115,6 +119,55 @@ function buildQuery(trx: Knex | Knex.Transaction) {
 export async function getBuild(id: string, trx: Knex | Knex.Transaction = db()): Promise<Build | null> {
   const row = await buildQuery(trx).where("b.id", id).first<BuildRow | undefined>();
   return row ? toBuild(row) : null;
+}
+
+/** What `GET /api/v1/builds/{id}` shows: the build, what its prediction needs of the design, tweaks, open flags. */
+export interface BuildDetail {
+  build: Build;
+  topology: Topology;
+  /** The design's current revision's extra capacitance and windings (the prediction's other inputs). */
+  extraCapacitanceF: number | null;
+  windings: WindingSense | null;
+  /** Oldest first, as the log reads. */
+  tweaks: Tweak[];
+  /** Not yet acknowledged, newest first. */
+  openFlags: Flag[];
+}
+
+// The build's tweaks and open flags as JSON arrays in the orders listTweaks and listBuildFlags give them, so the
+// detail is one statement instead of six.
+const BUILD_TWEAKS_JSON_SQL = `(select coalesce(json_agg(x order by x.created_at, x.id), '[]'::json)
+  from (select t.*, tu.name as created_by_name from tweaks t join auth_user tu on tu.id = t.created_by where t.build_id = b.id) x)`;
+const BUILD_OPEN_FLAGS_JSON_SQL = `(select coalesce(json_agg(x order by x.created_at desc, x.rule), '[]'::json)
+  from (select f.*, fu.name as acknowledged_by_name from flags f left join auth_user fu on fu.id = f.acknowledged_by
+        where f.build_id = b.id and f.acknowledged_at is null) x)`;
+
+/** The build detail as a read that can join the caller's token lookup (joined-read.ts); null for an unknown build. */
+export function buildDetailRead(id: string): JoinedRead<BuildDetail | null> {
+  return {
+    rows: (knex) =>
+      buildQuery(knex)
+        .join("design_revisions as dr", (j) => j.on("dr.design_id", "d.id").andOn("dr.revision", "d.current_revision"))
+        .select(
+          "d.topology as design_topology",
+          "dr.extra_capacitance_f as design_extra_capacitance_f",
+          "dr.windings as design_windings",
+          knex.raw(`${BUILD_TWEAKS_JSON_SQL} as tweak_rows`),
+          knex.raw(`${BUILD_OPEN_FLAGS_JSON_SQL} as open_flag_rows`),
+        )
+        .where("b.id", id),
+    map: ([row]) =>
+      row
+        ? {
+            build: toBuild(row as BuildRow),
+            topology: row.design_topology,
+            extraCapacitanceF: row.design_extra_capacitance_f,
+            windings: row.design_windings,
+            tweaks: row.tweak_rows.map(tweakFromJsonRow),
+            openFlags: row.open_flag_rows.map(flagFromJsonRow),
+          }
+        : null,
+  };
 }
 
 /** The build row locked for update, inside a transaction (tweaks and uploads read-modify-write its parts). */

@@ -3,6 +3,7 @@ import type { Knex } from "knex";
 import { flagFromJsonRow, RUN_FLAGS_JSON_SQL, type Flag } from "./flags";
 import { RUN_TWEAK_JSON_SQL, tweakFromJsonRow, type Tweak } from "./tweaks";
 import { db } from "../index";
+import type { JoinedRead } from "./joined-read";
 import { fullQuery, toRun, type Run, type RunRow } from "./run-rows";
 
 export async function getRun(id: string, trx: Knex | Knex.Transaction = db()): Promise<Run | null> {
@@ -20,16 +21,15 @@ export interface RunBuildNames {
   projectName: string;
 }
 
-/**
- * A run with what its detail shows beside it: its build's names, its flags (in flag order) and its tweak, in one
- * query instead of four (the run's detail is the API's most requested read).
- * @returns null for an unknown run
- */
-export async function getRunWithContext(
-  id: string,
-  trx: Knex | Knex.Transaction = db(),
-): Promise<{ run: Run; build: RunBuildNames; flags: Flag[]; tweak: Tweak | null } | null> {
-  const row = await fullQuery(trx)
+export interface RunWithContext {
+  run: Run;
+  build: RunBuildNames;
+  flags: Flag[];
+  tweak: Tweak | null;
+}
+
+function runWithContextQuery(knex: Knex | Knex.Transaction, id: string) {
+  return fullQuery(knex)
     .join("builds as b", "b.id", "r.build_id")
     .join("designs as d", "d.id", "b.design_id")
     .join("projects as p", "p.id", "d.project_id")
@@ -39,12 +39,13 @@ export async function getRunWithContext(
       "d.name as build_design_name",
       "d.project_id as build_project_id",
       "p.name as build_project_name",
-      trx.raw(`${RUN_FLAGS_JSON_SQL} as flag_rows`),
-      trx.raw(`${RUN_TWEAK_JSON_SQL} as tweak_row`),
+      knex.raw(`${RUN_FLAGS_JSON_SQL} as flag_rows`),
+      knex.raw(`${RUN_TWEAK_JSON_SQL} as tweak_row`),
     )
-    .where("r.id", id)
-    .first<(RunRow & Record<string, any>) | undefined>();
-  if (!row) return null;
+    .where("r.id", id);
+}
+
+function toRunWithContext(row: RunRow & Record<string, any>): RunWithContext {
   return {
     run: toRun(row),
     build: {
@@ -57,6 +58,24 @@ export async function getRunWithContext(
     },
     flags: row.flag_rows.map(flagFromJsonRow),
     tweak: row.tweak_row ? tweakFromJsonRow(row.tweak_row) : null,
+  };
+}
+
+/**
+ * A run with what its detail shows beside it: its build's names, its flags (in flag order) and its tweak, in one
+ * query instead of four (the run's detail is the API's most requested read).
+ * @returns null for an unknown run
+ */
+export async function getRunWithContext(id: string, trx: Knex | Knex.Transaction = db()): Promise<RunWithContext | null> {
+  const row = await runWithContextQuery(trx, id).first<(RunRow & Record<string, any>) | undefined>();
+  return row ? toRunWithContext(row) : null;
+}
+
+/** {@link getRunWithContext} as a read that can join the caller's token lookup (joined-read.ts). */
+export function runWithContextRead(id: string): JoinedRead<RunWithContext | null> {
+  return {
+    rows: (knex) => runWithContextQuery(knex, id),
+    map: (rows) => (rows[0] ? toRunWithContext(rows[0] as RunRow & Record<string, any>) : null),
   };
 }
 

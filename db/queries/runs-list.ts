@@ -1,6 +1,7 @@
 // A build's runs, newest first, filtered and paginated.
 import type { Knex } from "knex";
 import { db } from "../index";
+import type { JoinedRead } from "./joined-read";
 import { cursorColumn, paginate, toPage, type Page, type PageRequest } from "./pagination";
 import { summaryColumns, toSummary, type RunRow, type RunSnapshot, type RunStatus, type RunSummary, type Verdict } from "./run-rows";
 
@@ -33,6 +34,22 @@ function buildRunsQuery(trx: Knex | Knex.Transaction, buildId: string, filter: R
     .select(...summaryColumns, ...extraColumns, "u.name as created_by_name", cursorColumn(trx as Knex, "r"))
     .where("r.build_id", buildId);
   return paginate(whereRunFilter(query, filter), "r", filter);
+}
+
+/**
+ * {@link listRuns} as a read that can join the caller's token lookup (joined-read.ts), with whether the build
+ * exists (an empty page of an unknown build is a 404, of a known one an empty list).
+ */
+export function runsListRead(buildId: string, filter: RunFilter = {}): JoinedRead<{ page: Page<RunSummary>; buildExists: boolean }> {
+  return {
+    rows: (knex) => buildRunsQuery(knex, buildId, filter, []),
+    scalars: (knex) => ({ build_exists: knex.raw("exists (select 1 from builds where id = ?)", [buildId]) }),
+    orderBy: [
+      ["created_at", "desc"],
+      ["id", "desc"],
+    ],
+    map: (rows, scalars) => ({ page: toPage(rows as (RunRow & { cursor_ts: string })[], filter, toSummary), buildExists: scalars.build_exists === true }),
+  };
 }
 
 export async function listRuns(buildId: string, filter: RunFilter = {}, trx: Knex | Knex.Transaction = db()): Promise<Page<RunSummary>> {

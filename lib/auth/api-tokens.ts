@@ -1,5 +1,6 @@
 import { generateIdFromEntropySize } from "lucia";
-import { createApiTokenRow, revokeApiTokenRow, useApiToken, type ApiTokenSummary } from "@/db/queries/api-tokens";
+import { createApiTokenRow, revokeApiTokenRow, useApiToken, useApiTokenWith, type ApiTokenSummary } from "@/db/queries/api-tokens";
+import type { JoinedRead } from "@/db/queries/joined-read";
 import { recordAudit } from "@/db/queries/audit";
 import { NotFoundError } from "@/lib/errors";
 import type { CurrentUser } from "./current-user-type";
@@ -42,9 +43,23 @@ export async function revokeApiToken(input: { userId: string; tokenId: string; i
   await recordAudit({ actorId: input.userId, action: "token.revoked", entityType: "api_token", entityId: input.tokenId, detail: { name }, ip: input.ip });
 }
 
+function plausibleToken(token: string): boolean {
+  return token.startsWith(API_TOKEN_PREFIX) && token.length <= 200;
+}
+
 /** The active owner of a live token (the use is recorded); null for anything else. */
 export async function authenticateApiToken(token: string): Promise<CurrentUser | null> {
-  if (!token.startsWith(API_TOKEN_PREFIX) || token.length > 200) return null;
+  if (!plausibleToken(token)) return null;
   const found = await useApiToken(hashSecretToken(token));
   return found?.user ?? null;
+}
+
+/**
+ * {@link authenticateApiToken} with `read` made in the same statement as the lookup.
+ * @returns null for anything but a live token of an active owner (and then nothing was read)
+ */
+export async function authenticateApiTokenWith<T>(token: string, read: JoinedRead<T>): Promise<{ user: CurrentUser; data: T } | null> {
+  if (!plausibleToken(token)) return null;
+  const found = await useApiTokenWith(hashSecretToken(token), read);
+  return found ? { user: found.user, data: found.data } : null;
 }

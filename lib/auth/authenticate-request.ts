@@ -1,5 +1,6 @@
 import { verifyRequestOrigin } from "lucia";
-import { authenticateApiToken } from "./api-tokens";
+import { runJoinedRead, type JoinedRead } from "@/db/queries/joined-read";
+import { authenticateApiToken, authenticateApiTokenWith } from "./api-tokens";
 import type { CurrentUser } from "./current-user-type";
 import { lucia } from "./lucia";
 import { validateSessionId } from "./session-user";
@@ -46,4 +47,22 @@ export async function authenticateRequest(request: Request): Promise<CurrentUser
   const sessionId = lucia().readSessionCookie(request.headers.get("cookie") ?? "");
   if (!sessionId || !originAllowed(request)) return null;
   return (await validateSessionId(sessionId)).user;
+}
+
+/**
+ * {@link authenticateRequest} together with a read for the request: with an API token the read rides in the
+ * token lookup's statement (one round trip, the busiest API reads are bench scripts with tokens); with a session
+ * cookie lucia validates first and the read follows. Nothing is read without a user. The caller checks the user's
+ * permission (requirePermission) before it uses the data.
+ * @returns the user (null as authenticateRequest would return it) and the read's result (null without a user)
+ */
+export async function authenticateRequestWith<T>(request: Request, read: JoinedRead<T>): Promise<{ user: CurrentUser; data: T } | { user: null; data: null }> {
+  const authorization = request.headers.get("authorization");
+  if (authorization) {
+    const token = bearerToken(authorization);
+    const found = token ? await authenticateApiTokenWith(token, read) : null;
+    return found ?? { user: null, data: null };
+  }
+  const user = await authenticateRequest(request);
+  return user ? { user, data: await runJoinedRead(read) } : { user: null, data: null };
 }

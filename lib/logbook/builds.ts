@@ -5,12 +5,13 @@ import { listBuildFlags } from "@/db/queries/flags";
 import { listRuns, type RunFilter } from "@/db/queries/runs";
 import { listTweaks } from "@/db/queries/tweaks";
 import { getUserById } from "@/db/queries/users";
+import { authenticateRequest, authenticateRequestWith } from "@/lib/auth/authenticate-request";
 import { requirePermission } from "@/lib/auth/require-permission";
 import type { CurrentUser } from "@/lib/auth/current-user-type";
 import { BadRequestError, NotFoundError } from "@/lib/errors";
 import type { BuildInput } from "@/lib/validations/build";
 import { audit, isId, uniqueOr, type Actor } from "./context";
-import { predictBuild } from "./prediction";
+import { oscillatorDesign, predict, predictBuild } from "./prediction";
 
 async function checkBuilder(builtBy: string | undefined, fallback: string): Promise<string> {
   if (!builtBy || builtBy === fallback) return fallback;
@@ -84,6 +85,20 @@ export async function getBuildView(user: CurrentUser | null, buildId: string, ru
     ...runs.items.map((run) => ({ kind: "run" as const, at: run.createdAt, run })),
   ].sort((a, b) => a.at.getTime() - b.at.getTime());
   return { build, design, prediction, predictionError: error, tweaks, runs, timeline, flags, photos };
+}
+
+/**
+ * `GET /api/v1/builds/{id}` for an API request: who asks, the build, the prediction for its as-built values, its
+ * tweaks and open flags, read in the statement that looks up the caller's API token (authenticateRequestWith); the
+ * permission check comes before anything read is used.
+ * @throws UnauthorizedError, ForbiddenError, NotFoundError
+ */
+export async function getBuildDetailForRequest(request: Request, buildId: string) {
+  const { user, data } = isId(buildId) ? await authenticateRequestWith(request, q.buildDetailRead(buildId)) : { user: await authenticateRequest(request), data: null };
+  const allowed = requirePermission(user, "read");
+  if (!data) throw new NotFoundError("The build");
+  const { prediction, error } = predict(oscillatorDesign(data.topology, data.build.asBuilt, data.extraCapacitanceF, data.windings));
+  return { user: allowed, detail: data, prediction, predictionError: error };
 }
 
 /** A design's builds (for the API list). */

@@ -1,3 +1,5 @@
+import { discardUnreadBody, type RouteContext } from "@/lib/http/api-handler";
+import { problemFromError } from "@/lib/http/problem";
 import { BadRequestError } from "@/lib/errors";
 import { readLimitedJson, refuseBadText, SIGNED_IN_JSON_LIMITS } from "@/lib/http/json-body";
 
@@ -25,4 +27,23 @@ export function queryObject(request: Request): Record<string, string> {
 /** 201 Created with a Location header pointing at the new resource. */
 export function created(body: unknown, location: string): Response {
   return Response.json(body, { status: 201, headers: { location } });
+}
+
+/**
+ * Wraps a read-only /api/v1 handler that authenticates inside its own service call, so the caller's token lookup
+ * and the data come in one statement (authenticateRequestWith in lib/auth; the service makes the permission check
+ * through requirePermission). Errors map to problem+json and answers are not cached, as with apiHandler, which
+ * authenticates before the handler and so cannot join the lookup to the handler's query.
+ */
+export function apiReadHandler<P>(handler: (request: Request, context: RouteContext<P>) => Promise<Response>) {
+  return async (request: Request, context: RouteContext<P>): Promise<Response> => {
+    try {
+      const response = await handler(request, context);
+      if (!response.headers.has("cache-control")) response.headers.set("cache-control", "no-store");
+      return response;
+    } catch (err) {
+      await discardUnreadBody(request);
+      return problemFromError(err);
+    }
+  };
 }

@@ -7,6 +7,7 @@ import { getDesign } from "@/db/queries/designs";
 import * as q from "@/db/queries/runs";
 import { getTweak } from "@/db/queries/tweaks";
 import { getIdempotentRunId, markUploadSlotCompleted, saveIdempotencyKey } from "@/db/queries/uploads";
+import { authenticateRequest, authenticateRequestWith } from "@/lib/auth/authenticate-request";
 import { requirePermission } from "@/lib/auth/require-permission";
 import type { CurrentUser } from "@/lib/auth/current-user-type";
 import { AppError, BadRequestError, ConflictError, NotFoundError, PayloadTooLargeError } from "@/lib/errors";
@@ -343,8 +344,23 @@ export async function getRunView(user: CurrentUser | null, runId: string) {
   requirePermission(user, "read");
   const found = isId(runId) ? await q.getRunWithContext(runId) : null;
   if (!found) throw new NotFoundError("The run");
-  const { run, build, flags, tweak } = found;
+  return runView(found);
+}
+
+function runView({ run, build, flags, tweak }: q.RunWithContext) {
   return { run, build, flags, tweak, checks: run.specChecks ?? [], drift: runDrift(run) };
+}
+
+/**
+ * Who asks and the run they ask for (for an API request), read in the statement that looks up their API token
+ * (authenticateRequestWith); the permission check comes before anything read is used.
+ * @throws UnauthorizedError, ForbiddenError, NotFoundError
+ */
+export async function getRunViewForRequest(request: Request, runId: string) {
+  const { user, data } = isId(runId) ? await authenticateRequestWith(request, q.runWithContextRead(runId)) : { user: await authenticateRequest(request), data: null };
+  const allowed = requirePermission(user, "read");
+  if (!data) throw new NotFoundError("The run");
+  return { user: allowed, view: runView(data) };
 }
 
 /** A build's runs, newest first, filtered (for the API and the build page's table). */
@@ -355,6 +371,27 @@ export async function listBuildRuns(user: CurrentUser | null, buildId: string, f
   // A page with runs on it proves the build exists; only an empty page needs the second query.
   if (page.items.length === 0 && !(await getBuild(buildId))) throw new NotFoundError("The build");
   return page;
+}
+
+/**
+ * {@link listBuildRuns} for an API request: the caller's token lookup, the page and whether the build exists in
+ * one statement.
+ * @param readFilter - parses the query string; when it throws, the caller is still checked first, so an anonymous
+ *                     request with a bad query string stays a 401 and a signed-in one gets the 400
+ * @throws UnauthorizedError, ForbiddenError, NotFoundError, and what readFilter throws
+ */
+export async function listBuildRunsForRequest(request: Request, buildId: string, readFilter: () => q.RunFilter) {
+  let filter: q.RunFilter;
+  try {
+    filter = readFilter();
+  } catch (err) {
+    requirePermission(await authenticateRequest(request), "read");
+    throw err;
+  }
+  const { user, data } = isId(buildId) ? await authenticateRequestWith(request, q.runsListRead(buildId, filter)) : { user: await authenticateRequest(request), data: null };
+  const allowed = requirePermission(user, "read");
+  if (!data || (data.page.items.length === 0 && !data.buildExists)) throw new NotFoundError("The build");
+  return { user: allowed, page: data.page };
 }
 
 /** The plot data of an analysed run (waveform envelope, spectrum in dBV, harmonic markers); null until done. */

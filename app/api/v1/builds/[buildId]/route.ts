@@ -1,7 +1,7 @@
 import { apiHandler } from "@/lib/http/api-handler";
 import { buildJson, flagJson, tweakJson } from "@/lib/logbook/api-json";
-import { getBuildView, setBuildTimebase } from "@/lib/logbook/builds";
-import { readJson } from "@/lib/logbook/http";
+import { getBuildDetailForRequest, setBuildTimebase } from "@/lib/logbook/builds";
+import { apiReadHandler, readJson } from "@/lib/logbook/http";
 import { BadRequestError } from "@/lib/errors";
 import { timebaseInputSchema } from "@/lib/validations/timebase";
 
@@ -10,15 +10,15 @@ export const dynamic = "force-dynamic";
 type Params = { buildId: string };
 
 /** A build: as-built parts, the prediction for them, its tweaks (oldest first) and open flags. */
-export const GET = apiHandler<Params>({ action: "read" }, async (_request, context, user) => {
+export const GET = apiReadHandler<Params>(async (request, context) => {
   const { buildId } = await context.params;
-  const view = await getBuildView(user, buildId, { limit: 1 });
+  const { detail, prediction, predictionError } = await getBuildDetailForRequest(request, buildId);
   return Response.json({
-    ...buildJson(view.build, view.prediction),
-    topology: view.design.topology,
-    predictionError: view.predictionError,
-    tweaks: view.tweaks.map(tweakJson),
-    openFlags: view.flags.map(flagJson),
+    ...buildJson(detail.build, prediction),
+    topology: detail.topology,
+    predictionError,
+    tweaks: detail.tweaks.map(tweakJson),
+    openFlags: detail.openFlags.map(flagJson),
   });
 });
 

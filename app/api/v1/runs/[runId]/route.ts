@@ -1,6 +1,6 @@
-import { apiHandler } from "@/lib/http/api-handler";
 import { runJson } from "@/lib/logbook/api-json";
-import { getRunView } from "@/lib/logbook/runs";
+import { apiReadHandler } from "@/lib/logbook/http";
+import { getRunViewForRequest } from "@/lib/logbook/runs";
 
 export const dynamic = "force-dynamic";
 
@@ -12,8 +12,8 @@ type Params = { runId: string };
  * `npm run -s analyze -- FILE --json` prints, null until done; `checks` holds every spec check, `drift` the
  * measured-versus-predicted explanation.
  */
-export const GET = apiHandler<Params>({ action: "read" }, async (_request, context, user) => {
+export const GET = apiReadHandler<Params>(async (request, context) => {
   const { runId } = await context.params;
-  const view = await getRunView(user, runId);
+  const { view } = await getRunViewForRequest(request, runId);
   return Response.json({ ...runJson(view.run, view.flags, view.drift), buildLabel: view.build.label, designId: view.build.designId, projectId: view.build.projectId, tweak: view.tweak });
 });

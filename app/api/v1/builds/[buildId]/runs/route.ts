@@ -2,9 +2,9 @@ import { apiHandler } from "@/lib/http/api-handler";
 import { problem } from "@/lib/http/problem";
 import { runSummaryJson } from "@/lib/logbook/api-json";
 import { checkCaptureSize, uploadLimitBytes } from "@/lib/logbook/capture-files";
-import { queryObject } from "@/lib/logbook/http";
+import { apiReadHandler, queryObject } from "@/lib/logbook/http";
 import { bodyRead, readMultipartCapture } from "@/lib/logbook/multipart";
-import { listBuildRuns, uploadRunFromStream } from "@/lib/logbook/runs";
+import { listBuildRunsForRequest, uploadRunFromStream } from "@/lib/logbook/runs";
 import { idempotencyKeySchema, runListQuerySchema, runMetadataSchema } from "@/lib/validations/run";
 
 export const dynamic = "force-dynamic";
@@ -12,9 +12,9 @@ export const dynamic = "force-dynamic";
 type Params = { buildId: string };
 
 /** A build's runs, newest first: `{items, nextCursor}`; `?verdict=pass|fail|none&status=&from=&to=` (ISO 8601), `?cursor=&limit=` (≤ 200). */
-export const GET = apiHandler<Params>({ action: "read" }, async (request, context, user) => {
+export const GET = apiReadHandler<Params>(async (request, context) => {
   const { buildId } = await context.params;
-  const page = await listBuildRuns(user, buildId, runListQuerySchema.parse(queryObject(request)));
+  const { page } = await listBuildRunsForRequest(request, buildId, () => runListQuerySchema.parse(queryObject(request)));
   return Response.json({ items: page.items.map(runSummaryJson), nextCursor: page.nextCursor });
 });
 
