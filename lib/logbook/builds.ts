@@ -97,8 +97,29 @@ export async function getBuildDetailForRequest(request: Request, buildId: string
   const { user, data } = isId(buildId) ? await authenticateRequestWith(request, q.buildDetailRead(buildId)) : { user: await authenticateRequest(request), data: null };
   const allowed = requirePermission(user, "read");
   if (!data) throw new NotFoundError("The build");
-  const { prediction, error } = predict(oscillatorDesign(data.topology, data.build.asBuilt, data.extraCapacitanceF, data.windings));
+  const { prediction, error } = cachedPrediction(data.topology, data.build.asBuilt, data.extraCapacitanceF, data.windings);
   return { user: allowed, detail: data, prediction, predictionError: error };
+}
+
+// A prediction runs a 20 000-trial tolerance simulation with a fixed seed (lib/oscillator/tolerance.ts): the largest
+// piece of our own CPU time in the build detail's profile, and a pure function of these four inputs. The detail keeps
+// the answers for the builds asked about lately, so a script polling a build pays it once, not on every request.
+const PREDICTIONS_KEPT = 256;
+const predictions = new Map<string, ReturnType<typeof predict>>();
+
+function cachedPrediction(...inputs: Parameters<typeof oscillatorDesign>): ReturnType<typeof predict> {
+  const key = JSON.stringify(inputs);
+  const kept = predictions.get(key);
+  if (kept) {
+    // Least recently used goes first: re-inserting moves the key to the end of the Map's order.
+    predictions.delete(key);
+    predictions.set(key, kept);
+    return kept;
+  }
+  const answer = predict(oscillatorDesign(...inputs));
+  predictions.set(key, answer);
+  if (predictions.size > PREDICTIONS_KEPT) predictions.delete(predictions.keys().next().value!);
+  return answer;
 }
 
 /** A design's builds (for the API list). */
