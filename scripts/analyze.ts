@@ -93,9 +93,9 @@ const PARALLEL_PARSE_BYTES = 4 << 20;
 const WORKER_SHARE = 0.55;
 
 /**
- * Hands the data rows from the next line feed after halfway through what is left to the worker,
- * into the room the importer sets aside for them; undefined when the header is not read yet or the
- * file is too short to bother.
+ * Hands the data rows from the first line feed past the worker's share of what is left to the
+ * worker, into the room the importer sets aside for them; undefined when the header is not read
+ * yet or the file is too short to bother.
  */
 function startSecondHalf(worker: Worker, fd: number, path: string, importer: CaptureImporter, position: number, size: number) {
   const known = importer.rowLayout();
@@ -148,7 +148,7 @@ function importFile(path: string, worker?: Worker) {
         position += read;
         // The importer copies what it keeps, so one buffer serves every chunk.
         importer.push(buffer.subarray(0, read));
-        // Split only once the worker is up: halving what is left then keeps the two halves even
+        // Split only once the worker is up: sharing out what is left then keeps the two parts even
         // however long its start-up took (a fixed split left this thread waiting for it).
         if (parallel && !secondHalf && end === Infinity && isReady(worker)) {
           secondHalf = startSecondHalf(worker, fd, path, importer, position, stat.size);
@@ -243,10 +243,15 @@ const workerReady = new WeakMap<Worker, Int32Array>();
 // whole before the worker is up: wait (up to the usual two seconds) for the worker at the first chunk.
 const WAIT_FOR_WORKER = process.env.TANKBOOK_ANALYZE_WAIT_FOR_WORKER === "1";
 
+let waitedForWorker = false;
+
 function isReady(worker: Worker): boolean {
   const flag = workerReady.get(worker);
   if (!flag) return false;
-  if (WAIT_FOR_WORKER) Atomics.wait(flag, 0, 0, WORKER_START_MS);
+  if (WAIT_FOR_WORKER && !waitedForWorker) {
+    waitedForWorker = true;
+    Atomics.wait(flag, 0, 0, WORKER_START_MS);
+  }
   return Atomics.load(flag, 0) === 1;
 }
 
