@@ -18,6 +18,7 @@ import {
   type TimelineSeries,
 } from "@/lib/drift-trend";
 import { getRetuneSuggestion, getSignOff, type BuildRetune } from "@/lib/logbook/review";
+import { retuneAimFor, type RetuneAimView } from "@/lib/logbook/retune-aim";
 import { computeBuildSensitivity, type BuildSensitivity } from "@/lib/logbook/sensitivity";
 import { analyseDrift, type DriftAnalysis } from "@/lib/oscillator/drift";
 import type { OscillatorDesign, Topology } from "@/lib/oscillator/design";
@@ -52,6 +53,8 @@ export interface BuildReviewData {
   latestSignPhrase: string | null;
   retune: BuildRetune | null;
   retuneError: string | null;
+  /** How the person's retune card aims (their remembered choice) and what it takes as real. */
+  retuneAim: RetuneAimView;
   flags: Flag[];
   follow: FollowStatus;
   followsProject: boolean;
@@ -104,8 +107,9 @@ export async function loadBuildReview(
 
   let retune: BuildRetune | null = null;
   let retuneError: string | null = null;
+  const retuneAim = await retuneAimFor(user, build, topology);
   try {
-    retune = await getRetuneSuggestion(build.id, { series: options.series });
+    retune = await getRetuneSuggestion(build.id, { series: options.series, calibrationCapacitanceF: retuneAim.calibrationCapacitanceF });
   } catch (err) {
     retuneError = err instanceof Error ? err.message : "The retune could not be computed for these values.";
   }
@@ -166,6 +170,7 @@ export async function loadBuildReview(
     latestSignPhrase: typeof latestImplied === "number" && Number.isFinite(latestImplied) ? impliedCapacitanceSign(latestImplied).phrase : null,
     retune,
     retuneError,
+    retuneAim,
     flags,
     follow,
     followsProject,

@@ -16,6 +16,7 @@ import {
   planRetuneTweakAction,
   signOffBuildAction,
 } from "@/app/(app)/builds/[buildId]/review-actions";
+import { chooseRetuneAimAction } from "@/app/(app)/layouts/actions";
 import type { BuildReviewData } from "./build-review-data";
 import { RunsCsvLink, type RunsCsvFilters } from "./export-links";
 import { FlagsList } from "./flags-list";
@@ -100,6 +101,12 @@ export function RetuneSuggestionCard({
           plan={can(user.role, "tweak:create") ? planRetuneTweakAction.bind(null, buildId) : undefined}
           seriesLinks={links}
           trustWarnings={r?.trustWarnings ?? []}
+          aim={{
+            value: data.retuneAim.aim,
+            constructionName: data.retuneAim.constructionName,
+            fallbackReason: data.retuneAim.fallbackReason,
+            choose: chooseRetuneAimAction.bind(null, buildId),
+          }}
         />
       </CardBody>
     </Card>

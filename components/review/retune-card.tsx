@@ -25,6 +25,38 @@ export interface RetuneCardProps {
   seriesLinks?: { series: string; href: string; current: boolean }[];
   /** The run's trust warnings, in the engine's words; the card says the suggestion rests on them. */
   trustWarnings?: string[];
+  /** How the card aims (the person's remembered choice) and the action that changes it (field `aim`). */
+  aim?: {
+    value: "measured" | "lab";
+    constructionName: string;
+    fallbackReason: string | null;
+    choose: (prev: FormState, formData: FormData) => Promise<FormState>;
+  };
+}
+
+/** The choice of calibration: this build's own run, or the lab's figure for its construction (remembered per person). */
+function AimChoice({ aim }: { aim: NonNullable<RetuneCardProps["aim"]> }) {
+  const [state, formAction, pending] = useActionState(aim.choose, {} as FormState);
+  return (
+    <form action={formAction} className="space-y-1.5">
+      <fieldset className="flex flex-wrap items-center gap-x-4 gap-y-1 text-xs text-ink">
+        <legend className="mb-1 text-xs font-medium text-ink-soft">Aim for the target</legend>
+        <label className="inline-flex items-center gap-1.5">
+          <input type="radio" name="aim" value="measured" defaultChecked={aim.value === "measured"} />
+          as this build measured
+        </label>
+        <label className="inline-flex items-center gap-1.5">
+          <input type="radio" name="aim" value="lab" defaultChecked={aim.value === "lab"} />
+          as {aim.constructionName.toLowerCase().startsWith("pcb") ? aim.constructionName : `a ${aim.constructionName.toLowerCase()}`} builds here (the lab&apos;s figure)
+        </label>
+        <Button type="submit" size="sm" variant="secondary" disabled={pending}>
+          {pending ? "Saving…" : "Aim"}
+        </Button>
+      </fieldset>
+      {aim.fallbackReason ? <p className="text-xs text-ink-soft">{aim.fallbackReason}</p> : null}
+      {state.message && !state.ok ? <FormMessage message={state.message} /> : null}
+    </form>
+  );
 }
 
 const ratio = (value: number | null): string => (value === null ? "—" : String(Number(value.toPrecision(3))));
@@ -49,7 +81,7 @@ function inside(valueHz: number, band: { minHz: number; maxHz: number }): boolea
  * target (taking the capacitance the measurement implies as real), its predicted frequency and bands, and one
  * button that logs it as a planned tweak.
  */
-export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [], trustWarnings = [] }: RetuneCardProps) {
+export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [], trustWarnings = [], aim }: RetuneCardProps) {
   const [state, formAction, pending] = useActionState(plan ?? (async (prev: FormState) => prev), {} as FormState);
   if (error) {
     return <p className="text-sm text-verdict-fail">No retune suggestion: {error}</p>;
@@ -72,9 +104,19 @@ export function RetuneCard({ suggestion: s, run, error, plan, seriesLinks = [], 
         <Link href={`/runs/${run.id}`} className="underline underline-offset-2 hover:text-copper">
           {run.originalFilename}
         </Link>{" "}
-        ({formatDateTime(run.createdAt)}, measured <span className="num font-mono">{formatQuantity(run.measuredHz, "Hz", 6)}</span>), taking its implied{" "}
-        <span className="num font-mono">{formatSignedCapacitance(s.calibrationCapacitanceF)}</span> as real.
+        ({formatDateTime(run.createdAt)}, measured <span className="num font-mono">{formatQuantity(run.measuredHz, "Hz", 6)}</span>),{" "}
+        {aim?.value === "lab" && !aim.fallbackReason ? (
+          <>
+            taking the <span className="num font-mono">{formatSignedCapacitance(s.calibrationCapacitanceF)}</span> that {aim.constructionName} builds add in
+            this lab as real.
+          </>
+        ) : (
+          <>
+            taking its implied <span className="num font-mono">{formatSignedCapacitance(s.calibrationCapacitanceF)}</span> as real.
+          </>
+        )}
       </p>
+      {aim ? <AimChoice aim={aim} /> : null}
       {trustWarnings.length > 0 ? (
         <Warning>
           <strong className="font-semibold">This run carries trust warnings</strong>, so the suggestion rests on a measurement that may be off:{" "}

@@ -252,7 +252,12 @@ function toleranceHzOf(spec: { toleranceValue?: number | null; toleranceUnit?: s
  * @throws ConflictError carrying lib/oscillator's reason when the stored values cannot be retuned (outside the bench
  *   limits, no realisable tank)
  */
-export async function getRetuneSuggestion(buildId: string, options: { series?: ESeriesName } = {}, trx: Knex | Knex.Transaction = db()): Promise<BuildRetune | null> {
+export async function getRetuneSuggestion(
+  buildId: string,
+  // calibrationCapacitanceF: the lab's figure to take as real instead of the run's implied capacitance (lib/logbook/retune-aim).
+  options: { series?: ESeriesName; calibrationCapacitanceF?: number } = {},
+  trx: Knex | Knex.Transaction = db(),
+): Promise<BuildRetune | null> {
   if (!isId(buildId)) return null;
   const runId = await getLatestAnalysedRunId(buildId, trx);
   if (!runId) return null;
@@ -269,7 +274,13 @@ export async function getRetuneSuggestion(buildId: string, options: { series?: E
         ...(snapshot.extraCapacitanceF !== null ? { extraCapacitanceF: snapshot.extraCapacitanceF } : {}),
         ...(snapshot.windings ? { windings: snapshot.windings } : {}),
       },
-      { targetHz, measuredHz: run.measuredHz, series: options.series ?? "E12", targetToleranceHz: toleranceHzOf(snapshot.spec, targetHz) },
+      {
+        targetHz,
+        measuredHz: run.measuredHz,
+        series: options.series ?? "E12",
+        targetToleranceHz: toleranceHzOf(snapshot.spec, targetHz),
+        ...(options.calibrationCapacitanceF !== undefined ? { calibrationCapacitanceF: options.calibrationCapacitanceF } : {}),
+      },
     );
   } catch (err) {
     // Values stored before the bench limits (a 1e30 Hz target) are the data's problem, not a server fault.
@@ -297,13 +308,13 @@ function valueText(valueSi: number, unit: "F" | "H"): string {
  */
 export async function planRetuneTweak(
   actor: CurrentUser | null,
-  input: { buildId: string; series?: ESeriesName },
+  input: { buildId: string; series?: ESeriesName; calibrationCapacitanceF?: number },
   meta: RequestMeta,
 ): Promise<{ tweak: Tweak; created: boolean }> {
   const user = requirePermission(actor, "tweak:create");
   return db().transaction(async (trx) => {
     const build = await lockedBuild(input.buildId, trx);
-    const retune = await getRetuneSuggestion(input.buildId, { series: input.series }, trx);
+    const retune = await getRetuneSuggestion(input.buildId, { series: input.series, calibrationCapacitanceF: input.calibrationCapacitanceF }, trx);
     if (!retune) throw new ConflictError("There is no retune suggestion yet: it needs an analysed run with a measured frequency and a target frequency in the spec.");
     const s = retune.suggestion;
     if (s.onTarget) throw new ConflictError("The build is on target within the spec's tolerance: no tweak needed.");

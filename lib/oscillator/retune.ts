@@ -98,6 +98,11 @@ export interface RetuneOptions {
   targetHz: number;
   /** Measured frequency, Hz; when given, the capacitance it implies is taken as real. */
   measuredHz?: number;
+  /**
+   * A signed parallel capacitance to take as real instead of the one `measuredHz` implies, F: the lab's figure for
+   * the build's construction (the calibrated model), when the retune should aim as the lab's builds measure.
+   */
+  calibrationCapacitanceF?: number;
   /** Series the new part comes from; default E12. */
   series?: ESeriesName;
   /** Only change this part; default: the best over every capacitor. */
@@ -192,8 +197,11 @@ export function suggestRetune(design: OscillatorDesign, options: RetuneOptions):
   const capacitors = candidates.filter((ref) => TOPOLOGY_PARTS[design.topology][ref].kind === "capacitance");
   const refs = options.part !== undefined ? [options.part] : options.includeInductors ? candidates : capacitors;
 
+  if (options.calibrationCapacitanceF !== undefined && !Number.isFinite(options.calibrationCapacitanceF)) {
+    throw new RangeError(`the calibration capacitance must be a finite number of F; got ${options.calibrationCapacitanceF}`);
+  }
   const calibrationCapacitanceF =
-    options.measuredHz === undefined ? 0 : analyseDrift(design, options.measuredHz).impliedExtraCapacitanceF;
+    options.calibrationCapacitanceF ?? (options.measuredHz === undefined ? 0 : analyseDrift(design, options.measuredHz).impliedExtraCapacitanceF);
   const calibrated: OscillatorDesign = {
     ...design,
     calibrationCapacitanceF: (design.calibrationCapacitanceF ?? 0) + calibrationCapacitanceF,

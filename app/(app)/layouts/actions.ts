@@ -1,9 +1,11 @@
 "use server";
 
+import { revalidatePath } from "next/cache";
 import { ZodError } from "zod";
-import { fieldErrors, stateFromError } from "@/lib/auth/action-state";
+import { fieldErrors, stateFromError, type FormState } from "@/lib/auth/action-state";
 import { getCurrentUser } from "@/lib/auth/current-user";
 import { proposeDesignValues, type DesignValueProposals } from "@/lib/logbook/layouts";
+import { chooseRetuneAim } from "@/lib/logbook/retune-aim";
 import type { ValueProposalRequest } from "@/lib/validations/layouts";
 
 /** The answer of the design form's "propose values" step: proposals, or what was wrong with the request. */
@@ -17,5 +19,16 @@ export async function proposeDesignValuesAction(input: ValueProposalRequest): Pr
     if (err instanceof ZodError) return { ok: false, message: "Check the highlighted fields.", errors: fieldErrors(err) };
     const state = stateFromError(err);
     return { ok: false, message: state.message ?? "The values could not be proposed.", errors: state.errors };
+  }
+}
+
+/** Remembers how the person's retune card aims (field `aim`: measured or lab); bind the build id to refresh its page. */
+export async function chooseRetuneAimAction(buildId: string, _prev: FormState, formData: FormData): Promise<FormState> {
+  try {
+    const aim = await chooseRetuneAim(await getCurrentUser(), formData.get("aim"));
+    revalidatePath(`/builds/${buildId}`);
+    return { ok: true, message: aim === "lab" ? "The retune now aims with the lab's figure for this construction." : "The retune now aims with this build's own run." };
+  } catch (err) {
+    return stateFromError(err);
   }
 }

@@ -4,6 +4,9 @@ import { revalidatePath } from "next/cache";
 import type { FormState } from "@/lib/auth/action-state";
 import { getCurrentUser } from "@/lib/auth/current-user";
 import { requestMeta } from "@/lib/auth/request-meta";
+import { getBuild } from "@/db/queries/builds";
+import { getDesign } from "@/db/queries/designs";
+import { retuneAimFor } from "@/lib/logbook/retune-aim";
 import { failedForm, formObject, invalidForm } from "@/lib/logbook/action-helpers";
 import { acknowledgeFlag, followBuild, followProject, planRetuneTweak, reviewBuild, unfollowBuild } from "@/lib/logbook/review";
 import { formatEngineering } from "@/lib/oscillator/units";
@@ -91,7 +94,16 @@ export async function planRetuneTweakAction(buildId: string, _prev: FormState, f
   try {
     const parsed = retunePlanSchema.safeParse({ ...formObject(formData), buildId });
     if (!parsed.success) return invalidForm(parsed.error, formData);
-    const { tweak, created } = await planRetuneTweak(await getCurrentUser(), { buildId, series: parsed.data.series as ESeriesName | undefined }, await requestMeta());
+    const user = await getCurrentUser();
+    // The tweak planned is the one the card shows: same series, same remembered aim.
+    const build = await getBuild(buildId);
+    const design = build ? await getDesign(build.designId) : null;
+    const aim = build && design ? await retuneAimFor(user, build, design.topology) : null;
+    const { tweak, created } = await planRetuneTweak(
+      user,
+      { buildId, series: parsed.data.series as ESeriesName | undefined, calibrationCapacitanceF: aim?.calibrationCapacitanceF },
+      await requestMeta(),
+    );
     buildPaths(buildId);
     const unit = tweak.partRef?.startsWith("L") ? "H" : "F";
     const to = tweak.toValue === null ? "" : ` to ${formatEngineering(tweak.toValue, unit, 3)}`;
