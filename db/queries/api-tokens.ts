@@ -1,7 +1,7 @@
 import type { Knex } from "knex";
 import type { Role } from "@/lib/auth/permissions";
 import { db } from "../index";
-import { joinedStatement, splitJoined, type JoinedRead } from "./joined-read";
+import { readJoinedTo, type JoinedRead } from "./joined-read";
 
 /** A token as its owner sees it in a list: never the secret or its hash. */
 export interface ApiTokenSummary {
@@ -94,9 +94,6 @@ export async function useApiToken(tokenHash: string): Promise<TokenUse | null> {
  * @returns null for an unknown or revoked token or a disabled owner (nothing is read then)
  */
 export async function useApiTokenWith<T>(tokenHash: string, read: JoinedRead<T>): Promise<(TokenUse & { data: T }) | null> {
-  const knex = db();
-  const rows = await joinedStatement(knex, liveTokenHead(knex, tokenHash), read);
-  const split = splitJoined(rows, read, Object.keys(read.scalars?.(knex) ?? {}));
-  if (!split) return null;
-  return { ...(await touchToken(split.head)), data: split.data };
+  const found = await readJoinedTo(liveTokenHead(db(), tokenHash), read);
+  return found ? { ...(await touchToken(found.head)), data: found.data } : null;
 }

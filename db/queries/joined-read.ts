@@ -16,35 +16,30 @@ export interface JoinedRead<T> {
   map(rows: Record<string, any>[], scalars: Record<string, any>): T;
 }
 
-/** `head` (a query of at most one row) with the read's scalars and rows joined to it; `h_*` columns are the head's. */
-export function joinedStatement(knex: Knex, head: Knex.QueryBuilder, read: JoinedRead<unknown>): Knex.QueryBuilder {
+/**
+ * Runs `read` joined to `head` (a query of at most one row whose columns are named `h_*`) as one statement.
+ * @returns the head's columns and the read's result, or null when the head found no row (nothing was read then)
+ */
+export async function readJoinedTo<T>(head: Knex.QueryBuilder, read: JoinedRead<T>, trx: Knex | Knex.Transaction = db()): Promise<{ head: Record<string, any>; data: T } | null> {
+  const knex = trx as Knex;
   const scalars = read.scalars?.(knex) ?? {};
   for (const [name, sql] of Object.entries(scalars)) head.select(knex.raw(`? as ??`, [sql, name]));
   // knex compiles a query builder given as a binding into its parenthesised SQL; its types only name Raw.
   const statement = knex.select("h.*", "d.*").from(head.as("h")).joinRaw("left join lateral ? as d on true", [read.rows(knex) as unknown as Knex.Raw]);
   for (const [column, order] of read.orderBy ?? []) statement.orderBy(`d.${column}`, order);
-  return statement;
-}
-
-/**
- * Splits a joined statement's rows into the head's columns (named `h_*`, taken from the first row) and the read's
- * result. @returns null when the head found no row
- */
-export function splitJoined<T>(rows: Record<string, any>[], read: JoinedRead<T>, scalarNames: string[]): { head: Record<string, any>; data: T } | null {
+  const rows: Record<string, any>[] = await statement;
   if (rows.length === 0) return null;
-  const first = rows[0];
-  const head: Record<string, any> = {};
-  const scalars: Record<string, any> = {};
-  for (const key of Object.keys(first)) {
-    if (key.startsWith("h_")) head[key] = first[key];
-    else if (scalarNames.includes(key)) scalars[key] = first[key];
+  const headColumns: Record<string, any> = {};
+  const scalarValues: Record<string, any> = {};
+  for (const key of Object.keys(rows[0])) {
+    if (key.startsWith("h_")) headColumns[key] = rows[0][key];
+    else if (Object.hasOwn(scalars, key)) scalarValues[key] = rows[0][key];
   }
-  return { head, data: read.map(rows.filter((r) => r.id !== null && r.id !== undefined), scalars) };
+  return { head: headColumns, data: read.map(rows.filter((r) => r.id !== null && r.id !== undefined), scalarValues) };
 }
 
 /** The read on its own (a session-authenticated request), still one statement. */
 export async function runJoinedRead<T>(read: JoinedRead<T>, trx: Knex | Knex.Transaction = db()): Promise<T> {
   const knex = trx as Knex;
-  const rows = await joinedStatement(knex, knex.select(knex.raw("true as h_alone")), read);
-  return splitJoined(rows, read, Object.keys(read.scalars?.(knex) ?? {}))!.data;
+  return (await readJoinedTo(knex.select(knex.raw("true as h_alone")), read, trx))!.data;
 }
