@@ -111,7 +111,8 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
     let nulField: string | null = null;
     parser.on("field", (name, value) => {
       // PostgreSQL text cannot hold a NUL character; refused here rather than failing the insert with a 500.
-      if (value.includes("\u0000") || name.includes("\u0000")) nulField ??= name;
+      // busboy hands a part without a name="…" parameter over with name undefined (found by the fuzz campaign).
+      if ((value ?? "").includes("\u0000") || (name ?? "").includes("\u0000")) nulField ??= name ?? "";
       fields[name] = value;
     });
     parser.on("close", () => {

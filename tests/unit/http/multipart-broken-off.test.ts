@@ -16,6 +16,7 @@ async function settleWithoutUncaught(request: Request): Promise<{ uncaught: unkn
   const uncaught: unknown[] = [];
   const onUncaught = (err: unknown) => uncaught.push(err);
   process.on("uncaughtException", onUncaught);
+  process.on("unhandledRejection", onUncaught);
   try {
     const parts = readMultipartCapture(request);
     const [file, fields] = await Promise.allSettled([parts.file.then(async (f) => {
@@ -26,6 +27,7 @@ async function settleWithoutUncaught(request: Request): Promise<{ uncaught: unkn
     return { uncaught, fileError: file.status === "rejected" ? file.reason : null, fieldsError: fields.status === "rejected" ? fields.reason : null };
   } finally {
     process.off("uncaughtException", onUncaught);
+    process.off("unhandledRejection", onUncaught);
   }
 }
 
@@ -51,5 +53,12 @@ describe("readMultipartCapture on a body that breaks off", () => {
     const r = await settleWithoutUncaught(truncatedBody([`Content-Disposition: form-data; name="file"; filename="${"n".repeat(300)}.csv"\r\nContent-Type: text/csv\r\n\r\ntime,ch1\n0,1`]));
     expect(r.uncaught).toEqual([]);
     expect(String(r.fileError)).toMatch(/characters long/);
+  });
+
+  it("with a text part that has no name parameter: no uncaught rejection", async () => {
+    const boundary = "----noname";
+    const body = `--${boundary}\r\nContent-Disposition: form-data; filename\r\n\r\nvalue\r\n--${boundary}\r\nContent-Disposition: form-data\r\n\r\nx\r\n--${boundary}--\r\n`;
+    const r = await settleWithoutUncaught(new Request("http://127.0.0.1/upload", { method: "POST", headers: { "content-type": `multipart/form-data; boundary=${boundary}` }, body }));
+    expect(r.uncaught).toEqual([]);
   });
 });
