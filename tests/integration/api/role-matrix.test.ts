@@ -19,6 +19,9 @@ const MINIMUM_ROLE: Record<string, Role> = {
   "PATCH /api/v1/builds/{buildId}": "technician",
   "POST /api/v1/builds/{buildId}/runs": "technician",
   "POST /api/v1/runs/{runId}/reanalyse": "technician",
+  // Withdrawing a run from the figures: whoever edits the build (technicians and above).
+  "POST /api/v1/runs/{runId}/withdrawal": "technician",
+  "DELETE /api/v1/runs/{runId}/withdrawal": "technician",
   "POST /api/v1/uploads": "technician",
   "POST /api/v1/uploads/{slotId}/complete": "technician",
   "POST /api/v1/builds/{buildId}/review": "engineer",
@@ -79,6 +82,11 @@ async function request(operation: string, who: ApiPerson | null): Promise<Test> 
       return uploadCapture(fx.buildId, who, captureCsv(405e3, seed++));
     case "POST /api/v1/runs/{runId}/reanalyse":
       return api("post", `/api/v1/runs/${runId}/reanalyse`, who);
+    // The first allowed role withdraws (200), the next ones find it withdrawn (409); DELETE then restores it.
+    case "POST /api/v1/runs/{runId}/withdrawal":
+      return sendJson("post", `/api/v1/runs/${runId}/withdrawal`, who, { reason: "role matrix" });
+    case "DELETE /api/v1/runs/{runId}/withdrawal":
+      return api("delete", `/api/v1/runs/${runId}/withdrawal`, who);
     case "POST /api/v1/uploads":
       return sendJson("post", "/api/v1/uploads", who, { buildId: fx.buildId, filename: "m.csv", sizeBytes: 1000 });
     case "POST /api/v1/uploads/{slotId}/complete": {
