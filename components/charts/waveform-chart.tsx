@@ -24,6 +24,8 @@ export interface WaveformChartProps {
   sampleRateHz?: number | null;
   /** GET route answering `?fromS=&toS=` with `{timeS, volts}` (the run's excerpt route). */
   excerptUrl?: string;
+  /** A start-up's or ring-down's fitted envelope (DC ± the fundamental's amplitude per period), drawn over the band. */
+  envelope?: { timeS: number[]; amplitudeVpk: number[]; dcV: number; kind: "start-up" | "ring-down" } | null;
 }
 
 type Excerpt = { state: "none" } | { state: "loading"; fromS: number; toS: number } | { state: "ready"; excerpt: WaveformExcerpt } | { state: "error"; message: string };
@@ -36,7 +38,7 @@ const FETCH_DELAY_MS = 250;
  * peak shows even when the record has millions of samples. Zoomed in far enough (a few thousand samples in view),
  * it fetches that window's raw samples from the stored capture and draws them, each sample a point.
  */
-export function WaveformChart({ timeS, minV, maxV, channel, height = 240, sampleRateHz, excerptUrl }: WaveformChartProps) {
+export function WaveformChart({ timeS, minV, maxV, channel, height = 240, sampleRateHz, excerptUrl, envelope }: WaveformChartProps) {
   const [excerpt, setExcerpt] = useState<Excerpt>({ state: "none" });
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
   const abort = useRef<AbortController | null>(null);
@@ -71,6 +73,12 @@ export function WaveformChart({ timeS, minV, maxV, channel, height = 240, sample
           });
       }, FETCH_DELAY_MS);
     };
+    const fitted: uPlot.Series[] = envelope
+      ? [
+          { label: "fitted envelope +", stroke: chartColors.traceC, width: 1.5, dash: [5, 3], points: { show: false } },
+          { label: "fitted envelope −", stroke: chartColors.traceC, width: 1.5, dash: [5, 3], points: { show: false } },
+        ]
+      : [];
     return {
       scales: { x: { time: false }, y: { auto: true } },
       axes: [engineeringAxis("Time", x), engineeringAxis("Voltage", y, { size: 56 })],
@@ -78,12 +86,23 @@ export function WaveformChart({ timeS, minV, maxV, channel, height = 240, sample
         {},
         { label: "max", stroke: chartColors.traceA, width: 1, points: { show: false } },
         { label: "min", stroke: chartColors.traceA, width: 1, points: { show: false } },
+        ...fitted,
       ],
       bands: [{ series: [1, 2], fill: withAlpha(chartColors.traceA, 0.22) }],
       hooks: { setScale: [onZoom] },
     };
-  }, [timeS, minV, maxV, excerptUrl, sampleRateHz]);
-  const data = useMemo<uPlot.AlignedData>(() => [timeS, maxV, minV], [timeS, minV, maxV]);
+  }, [timeS, minV, maxV, excerptUrl, sampleRateHz, envelope]);
+  const data = useMemo<uPlot.AlignedData>(() => {
+    if (!envelope) return [timeS, maxV, minV];
+    const amplitude = timeS.map((t) => envelopeAt(envelope.timeS, envelope.amplitudeVpk, t));
+    return [
+      timeS,
+      maxV,
+      minV,
+      amplitude.map((a) => (a === null ? null : envelope.dcV + a)),
+      amplitude.map((a) => (a === null ? null : envelope.dcV - a)),
+    ];
+  }, [timeS, minV, maxV, envelope]);
 
   const name = channel ? `channel ${channel}` : "the analysed channel";
   if (excerpt.state === "ready") {
@@ -111,6 +130,7 @@ export function WaveformChart({ timeS, minV, maxV, channel, height = 240, sample
           <p className="flex items-center gap-2">
             <span aria-hidden="true" className="inline-block h-3 w-5 rounded-sm" style={{ background: withAlpha(chartColors.traceA, 0.35), border: `1px solid ${chartColors.traceA}` }} />
             Envelope of {name}: the band spans the lowest and highest sample in each time slice.
+            {envelope ? ` The dashed lines are the ${envelope.kind}'s fitted envelope, DC ± the fundamental's amplitude per period.` : ""}
             {excerptUrl && sampleRateHz ? " Zoom in to a few thousand samples to see the samples themselves." : ""}
           </p>
         }
@@ -126,6 +146,22 @@ export function WaveformChart({ timeS, minV, maxV, channel, height = 240, sample
       ) : null}
     </div>
   );
+}
+
+/** The envelope's amplitude at time t, linear between its per-period points; null outside them (not drawn, not guessed). */
+function envelopeAt(timesS: number[], amplitudeVpk: number[], t: number): number | null {
+  const last = timesS.length - 1;
+  if (last < 1 || t < timesS[0] || t > timesS[last]) return null;
+  let lo = 0;
+  let hi = last;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (timesS[mid] <= t) lo = mid;
+    else hi = mid;
+  }
+  const span = timesS[hi] - timesS[lo];
+  const w = span > 0 ? (t - timesS[lo]) / span : 0;
+  return amplitudeVpk[lo] + w * (amplitudeVpk[hi] - amplitudeVpk[lo]);
 }
 
 /** The raw samples of a zoomed window: a line through every sample, each marked, with a way back to the record. */

@@ -25,6 +25,7 @@ import { runFigures, specMeasurements } from "./run-results";
 import type { RunContext, RunData, RunPlot } from "./run-types";
 import { SpecVerdictList } from "./spec-verdict-list";
 import { StabilityCard } from "./stability/stability-card";
+import { waveformEnvelopeOf } from "./stability/read-stability";
 import { TrustWarnings } from "./trust-warnings";
 
 export interface RunViewProps {
@@ -113,6 +114,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
   });
 
   const figures = useMemo(() => runFigures(run), [run]);
+  const waveformEnvelope = useMemo(() => waveformEnvelopeOf(run.results), [run.results]);
   const drift = useMemo<DriftAnalysis | null>(() => {
     if (figures.frequencyHz === null || run.snapshot.predictedHz === null) return null;
     try {
@@ -188,6 +190,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
                     channel={run.channel ?? undefined}
                     sampleRateHz={figures.sampleRateHz}
                     excerptUrl={`/api/v1/runs/${runId}/excerpt`}
+                    envelope={waveformEnvelope}
                   />
                 ) : (
                   <ChartPlaceholder loading={plotQuery.isLoading} error={plotQuery.isError} />

@@ -116,6 +116,8 @@ describe("the run page's Stability card", () => {
       // Nothing pushes the page sideways on a phone.
       const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
       expect(overflow).toBeLessThanOrEqual(0);
+      // A steady record has no transient: nothing is drawn over its waveform.
+      await expect(page.getByText(/fitted envelope/).count()).resolves.toBe(0);
       await keepScreenshot(page, `stability-steady-${width}`);
       expect(errors).toEqual([]);
       await context.close();
@@ -129,6 +131,8 @@ describe("the run page's Stability card", () => {
     // The transient is not read as phase noise: those figures say why they are missing.
     await expect(card.getByText(/not measured/).first().isVisible()).resolves.toBe(true);
     await expect(page.getByText(/Start-up measured: 90 % of the settled/).first().isVisible()).resolves.toBe(true);
+    // The waveform itself carries the fitted envelope, so the figure can be checked against the trace.
+    await expect(page.getByText(/dashed lines are the start-up's fitted envelope/).isVisible()).resolves.toBe(true);
     await keepScreenshot(page, "stability-start-up-1280");
     expect(errors).toEqual([]);
     await context.close();

@@ -20,3 +20,20 @@ export function readStability(results: unknown): StabilityReading {
   if (!parsed.success) return { status: "not-measured", reason: "Not measured: the stored stability figures could not be read; re-analyse the run." };
   return { status: "measured", stability: parsed.data as StabilityResult };
 }
+
+/** The fitted fundamental's envelope, DC ± amplitude per period, to draw over the waveform: a start-up or ring-down only. */
+export interface WaveformEnvelope {
+  timeS: number[];
+  amplitudeVpk: number[];
+  dcV: number;
+  kind: "start-up" | "ring-down";
+}
+
+export function waveformEnvelopeOf(results: unknown): WaveformEnvelope | null {
+  const reading = readStability(results);
+  if (reading.status !== "measured") return null;
+  const { kind, curve } = reading.stability.envelope;
+  if ((kind !== "start-up" && kind !== "ring-down") || !curve || curve.timeS.length < 2) return null;
+  const dcV = (results as { dcV?: unknown }).dcV;
+  return { timeS: curve.timeS, amplitudeVpk: curve.amplitudeVpk, dcV: typeof dcV === "number" && Number.isFinite(dcV) ? dcV : 0, kind };
+}
