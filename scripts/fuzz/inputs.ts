@@ -2,81 +2,14 @@
 // the id routes and pages, hostile headers, multipart envelopes and CSV captures inside well-formed uploads.
 // Everything is drawn from a seeded Random, so the same seed and index always give the same input.
 import type { Random } from "./random";
+import { INPUT_CLASSES, UNKNOWN_ID, caller, short, text, type CallerRef, type InputClass, type FixtureIds, type FuzzInput, type Method, type Role } from "./input-kit";
+import { csvInput, multipartInput } from "./upload-inputs";
 
-export const INPUT_CLASSES = ["json", "query", "path", "headers", "multipart", "csv"] as const;
-export type InputClass = (typeof INPUT_CLASSES)[number];
+export { INPUT_CLASSES, UNKNOWN_ID, type CallerRef, type InputClass, type FixtureIds, type FuzzInput, type Method, type Role } from "./input-kit";
+export { multipartBody, smallCapture } from "./upload-inputs";
 
 /** Share of each class in a campaign (the slice in `npm test` keeps the same mix). */
 export const CLASS_WEIGHTS: Record<InputClass, number> = { json: 30, query: 14, path: 15, headers: 15, multipart: 12, csv: 14 };
-
-export type Role = "viewer" | "technician" | "engineer" | "admin";
-export type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
-
-/** Who sends a request: a signed-in role by API token or by session cookie, or nobody. */
-export type CallerRef = { auth: "token" | "cookie"; role: Role } | { auth: "none" };
-
-/** The ids the campaign's own fixture made, so generated requests reach real rows as well as unknown ones. */
-export interface FixtureIds {
-  projectId: string;
-  designId: string;
-  buildId: string;
-  runId: string;
-  tweakId: string;
-}
-
-export interface FuzzInput {
-  index: number;
-  class: InputClass;
-  method: Method;
-  /** Path and query, already encoded as sent. */
-  path: string;
-  caller: CallerRef;
-  headers: Record<string, string>;
-  body?: Buffer;
-  /** A printable account of the input for the report (bodies cut short). */
-  summary: string;
-}
-
-export const UNKNOWN_ID = "00000000-0000-4000-8000-000000000000";
-
-/** Text fields' worst cases: markup, control characters, NUL, lone surrogates, huge, odd Unicode, formulas. */
-const HOSTILE_TEXT = [
-  "<script>alert(1)</script>",
-  '"><img src=x onerror=alert(1)>',
-  "nul\u0000inside",
-  "\u0000",
-  "line\r\nInjected-Header: 1",
-  '=HYPERLINK("http://x.test")',
-  "@SUM(1+1)",
-  "'; drop table runs; --",
-  "\ud800 lone high surrogate",
-  "lone low \udc00",
-  "x".repeat(3000),
-  "   ",
-  "",
-  "🙂".repeat(50),
-  "\u202eabc",
-  "\u2066isolate\u2069",
-  "e\u0301\u0301\u0301",
-  "\ufeffbom",
-  "../../etc/passwd",
-  "..\\..\\windows\\win.ini",
-  "%2e%2e%2f",
-  "${jndi:ldap://x.test/a}",
-  "{{7*7}}",
-  "__proto__",
-  "constructor",
-  "1e309",
-  "-0",
-  "NaN",
-  "Infinity",
-  "0x1F",
-  "4.7q",
-  "100u",
-  "2.2n",
-  "1k5",
-  "R47",
-];
 
 const KNOWN_KEYS = [
   "name", "purpose", "topology", "parts", "spec", "windings", "extraCapacitance", "changeNote", "label", "kind", "kindRevision", "builtBy",
@@ -84,15 +17,6 @@ const KNOWN_KEYS = [
   "channel", "probe", "supplyV", "temperatureC", "tweakId", "keepDuplicate", "email", "password", "role", "id", "createdBy", "timebasePpm",
   "targetHz", "toleranceValue", "toleranceUnit", "construction", "__proto__", "constructor", "prototype",
 ];
-
-function text(r: Random): string {
-  return r.weighted<() => string>([
-    [4, () => r.pick(HOSTILE_TEXT)],
-    [3, () => r.string(r.int(0, 40), "abcxyzABC 0123456789-_.,:;µΩ°±")],
-    [2, () => r.string(r.int(1, 24))],
-    [1, () => r.string(r.int(1, 12), "\u0000\u0001\u001f\u007f\u0085\u2028\u2029\ud800\udfff\ufffe\uffff")],
-  ])();
-}
 
 function jsonValue(r: Random, depth = 0): unknown {
   return r.weighted<() => unknown>([
@@ -159,19 +83,6 @@ function jsonBodyText(r: Random): { text: string; label: string } {
 /** encodeURIComponent, with lone surrogates (which it refuses) written as U+FFFD. */
 export function safeEncode(value: string): string {
   return encodeURIComponent(value.replace(/[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\udbff])[\udc00-\udfff]/g, "\ufffd"));
-}
-
-function short(value: string, max = 160): string {
-  return value.length > max ? `${value.slice(0, max)}… (${value.length} chars)` : value;
-}
-
-function caller(r: Random, lowest: Role | null): CallerRef {
-  // Mostly a role allowed to make the request (so the input, not the role, decides), sometimes any role or none.
-  const roles: Role[] = ["viewer", "technician", "engineer", "admin"];
-  const allowed = lowest ? roles.slice(roles.indexOf(lowest)) : roles;
-  if (r.bool(0.06)) return { auth: "none" };
-  const role = r.bool(0.85) ? r.pick(allowed) : r.pick(roles);
-  return { auth: r.bool(0.75) ? "token" : "cookie", role };
 }
 
 interface Target {
@@ -376,189 +287,6 @@ function headerInput(r: Random, fx: FixtureIds, index: number): FuzzInput {
   if (target.body && !headers["content-type"]) headers["content-type"] = "application/json";
   const printable = Object.entries(headers).map(([k, v]) => `${k}: ${short(v, 60)}`).join(" | ");
   return { index, class: "headers", method: target.method, path: target.path, caller: who, headers, body: target.body, summary: `${target.method} ${target.path} [${kinds.join(",")}] ${printable}` };
-}
-
-type Part = { name: string; value: string } | { name: string; filename: Buffer | string; contentType?: string; content: Buffer | string; star?: string };
-
-/** A multipart/form-data body written by hand: any bytes in names, types and values, in the order given. */
-export function multipartBody(parts: Part[], boundary: string): Buffer {
-  const chunks: Buffer[] = [];
-  for (const p of parts) {
-    chunks.push(Buffer.from(`--${boundary}\r\n`));
-    if ("filename" in p) {
-      chunks.push(Buffer.from(`Content-Disposition: form-data; name="${p.name}"; filename="`), Buffer.from(p.filename), Buffer.from(`"${p.star ? `; filename*=${p.star}` : ""}\r\n`));
-      if (p.contentType !== undefined) chunks.push(Buffer.from(`Content-Type: ${p.contentType}\r\n`));
-      chunks.push(Buffer.from("\r\n"), Buffer.from(p.content), Buffer.from("\r\n"));
-    } else {
-      chunks.push(Buffer.from(`Content-Disposition: form-data; name="${p.name}"\r\n\r\n`), Buffer.from(p.value, "utf8"), Buffer.from("\r\n"));
-    }
-  }
-  chunks.push(Buffer.from(`--${boundary}--\r\n`));
-  return Buffer.concat(chunks);
-}
-
-/** A small capture a worker analyses in milliseconds; `salt` makes its bytes unique (no duplicate refusals). */
-export function smallCapture(r: Random, salt: number, rows = 400): string {
-  const f = 400e3 + (salt % 997) * 31;
-  const dt = 5e-8;
-  const lines = ["Time (s),Out (V)"];
-  for (let i = 0; i < rows; i++) lines.push(`${(i * dt).toExponential(6)},${(Math.sin(2 * Math.PI * f * i * dt) + (r.next() - 0.5) * 0.01).toFixed(5)}`);
-  return `${lines.join("\n")}\n`;
-}
-
-const UPLOAD_FIELDS = ["channel", "probe", "supplyV", "temperatureC", "note", "tweakId", "keepDuplicate", "label", "sampleRateHz"];
-
-function fieldValue(r: Random, fx: FixtureIds): string {
-  return r.weighted<() => string>([
-    [3, () => text(r)],
-    [2, () => r.pick(["1", "2", "x10", "x1", "-5", "1e309", "NaN", "true", "12.0", "25", "-300", "1000", fx.tweakId, UNKNOWN_ID, ""])],
-  ])();
-}
-
-function multipartInput(r: Random, fx: FixtureIds, index: number): FuzzInput {
-  const boundary = `----fuzz${index.toString(16)}${r.string(8, "abcdef0123456789")}`;
-  const parts: Part[] = [];
-  const notes: string[] = [];
-  for (let i = r.int(0, 3); i > 0; i--) {
-    const name = r.bool(0.8) ? r.pick(UPLOAD_FIELDS) : text(r).replace(/["\r\n]/g, "") || "x";
-    parts.push({ name, value: fieldValue(r, fx) });
-    notes.push(name);
-  }
-  const fileCount = r.weighted([[1, 0], [6, 1], [1, 2]] as const);
-  for (let i = 0; i < fileCount; i++) {
-    const filename = r.weighted<() => Buffer | string>([
-      [3, () => r.pick(["capture.csv", "../../etc/passwd.csv", "..\\..\\x.csv", `${"a".repeat(300)}.csv`, "x.exe", "", ".csv", "捕获.csv", "\u202ecod.csv", "a\u0000b.csv", "<script>.csv", "con.csv", "x.csv.exe"])],
-      [1, () => r.bytes(r.int(1, 20))],
-      [1, () => `${text(r).replace(/["\r\n]/g, "")}.csv`],
-    ])();
-    const star = r.bool(0.15) ? r.pick(["UTF-8''cap%00ture.csv", "UTF-8''%E0%A4%A.csv", "UTF-8''ok.csv", "garbage", "UTF-8''%2e%2e%2fx.csv"]) : undefined;
-    const content = r.weighted<() => Buffer | string>([
-      [3, () => smallCapture(r, index * 7 + i)],
-      [1, () => r.bytes(r.int(0, 512))],
-      [1, () => ""],
-    ])();
-    parts.push({ name: r.bool(0.85) ? "file" : r.pick(["File", "capture", "files[]", ""]), filename, contentType: r.pick(["text/csv", "text/csv", "application/octet-stream", "image/png", undefined, "text/csv; charset=utf-16"]), content, star });
-    notes.push(`file(${short(Buffer.isBuffer(filename) ? filename.toString("hex") : filename, 40)}${star ? `; *=${star}` : ""})`);
-  }
-  let body = multipartBody(parts, boundary);
-  let type = `multipart/form-data; boundary=${boundary}`;
-  const envelope = r.weighted<string>([[7, "intact"], [1, "truncated"], [1, "wrong boundary"], [1, "no boundary"]]);
-  if (envelope === "truncated") body = body.subarray(0, Math.max(0, body.length - r.int(5, 60)));
-  if (envelope === "wrong boundary") type = "multipart/form-data; boundary=not-the-one";
-  if (envelope === "no boundary") type = "multipart/form-data";
-  const headers: Record<string, string> = { "content-type": type };
-  if (r.bool(0.1)) headers["idempotency-key"] = `fuzz-${r.int(0, 20)}`;
-  const buildId = r.bool(0.9) ? fx.buildId : r.pick([UNKNOWN_ID, "x", fx.runId]);
-  return {
-    index,
-    class: "multipart",
-    method: "POST",
-    path: `/api/v1/builds/${buildId}/runs`,
-    caller: caller(r, "technician"),
-    headers,
-    body,
-    summary: `POST /api/v1/builds/${buildId}/runs multipart(${envelope}) [${notes.join(", ")}] ${body.length} bytes`,
-  };
-}
-
-/** CSV captures that are wrong in the ways scope exports and hand edits are wrong, in a well-formed upload. */
-function csvContent(r: Random, salt: number): { content: Buffer; label: string } {
-  const base = smallCapture(r, salt, r.int(16, 600));
-  const lines = base.trimEnd().split("\n");
-  const mutation = r.pick([
-    "as is", "semicolons", "tabs", "crlf", "bom", "utf16", "no header", "header only", "empty", "drop a column", "extra column", "text cell", "nan", "infinity",
-    "huge", "decreasing time", "repeated time", "gap", "one row", "binary tail", "long line", "quoted", "comma decimals", "scientific junk", "nul", "many channels", "random bytes",
-  ]);
-  const at = r.int(1, Math.max(1, lines.length - 1));
-  switch (mutation) {
-    case "semicolons":
-      return { content: Buffer.from(lines.map((l) => l.replace(",", ";")).join("\n")), label: mutation };
-    case "tabs":
-      return { content: Buffer.from(lines.map((l) => l.replace(",", "\t")).join("\n")), label: mutation };
-    case "crlf":
-      return { content: Buffer.from(lines.join("\r\n")), label: mutation };
-    case "bom":
-      return { content: Buffer.from(`\ufeff${lines.join("\n")}`), label: mutation };
-    case "utf16":
-      return { content: Buffer.from(`\ufeff${lines.join("\n")}`, "utf16le"), label: mutation };
-    case "no header":
-      return { content: Buffer.from(lines.slice(1).join("\n")), label: mutation };
-    case "header only":
-      return { content: Buffer.from(`${lines[0]}\n`), label: mutation };
-    case "empty":
-      return { content: Buffer.alloc(0), label: mutation };
-    case "drop a column":
-      lines[at] = lines[at].split(",")[0];
-      break;
-    case "extra column":
-      lines[at] = `${lines[at]},1,2`;
-      break;
-    case "text cell":
-      lines[at] = `${lines[at].split(",")[0]},${r.pick(["abc", "1.2.3", "--", "0x10", "1,5"])}`;
-      break;
-    case "nan":
-      lines[at] = `${lines[at].split(",")[0]},NaN`;
-      break;
-    case "infinity":
-      lines[at] = `${lines[at].split(",")[0]},${r.pick(["Infinity", "-Infinity", "1e309"])}`;
-      break;
-    case "huge":
-      lines[at] = `${lines[at].split(",")[0]},1e300`;
-      break;
-    case "decreasing time":
-      lines.splice(1, lines.length - 1, ...lines.slice(1).reverse());
-      break;
-    case "repeated time":
-      lines[at] = `${lines[Math.max(1, at - 1)].split(",")[0]},${lines[at].split(",")[1]}`;
-      break;
-    case "gap":
-      lines.splice(at, Math.min(5, lines.length - at));
-      break;
-    case "one row":
-      return { content: Buffer.from(`${lines[0]}\n${lines[1] ?? "0,0"}\n`), label: mutation };
-    case "binary tail":
-      return { content: Buffer.concat([Buffer.from(lines.join("\n")), r.bytes(r.int(1, 200))]), label: mutation };
-    case "long line":
-      lines[at] = `${lines[at]}${"9".repeat(r.int(1000, 70_000))}`;
-      break;
-    case "quoted":
-      lines[at] = `"${lines[at].replace(",", '","')}"${r.bool() ? "" : '"'}`;
-      break;
-    case "comma decimals":
-      return { content: Buffer.from(lines.map((l, i) => (i === 0 ? l.replace(",", ";") : l.replace(",", ";").replace(/\./g, ","))).join("\n")), label: mutation };
-    case "scientific junk":
-      lines[at] = `${r.pick(["1e", "e5", "1e+", "--1", "+-1", ".", "1..2"])},0.1`;
-      break;
-    case "nul":
-      lines[at] = `${lines[at]}\u0000`;
-      break;
-    case "many channels":
-      return { content: Buffer.from(lines.map((l, i) => (i === 0 ? `${l}${",Ch".repeat(40)}` : `${l}${",0.1".repeat(40)}`)).join("\n")), label: mutation };
-    case "random bytes":
-      return { content: r.bytes(r.int(1, 2048)), label: mutation };
-    default:
-      break;
-  }
-  return { content: Buffer.from(`${lines.join("\n")}\n`), label: mutation };
-}
-
-function csvInput(r: Random, fx: FixtureIds, index: number): FuzzInput {
-  const boundary = `----fuzzcsv${index.toString(16)}`;
-  const { content, label } = csvContent(r, index);
-  const parts: Part[] = [];
-  if (r.bool(0.3)) parts.push({ name: "channel", value: r.pick(["1", "2", "Out (V)", "9"]) });
-  parts.push({ name: "file", filename: r.pick(["capture.csv", "scope.CSV", "run.txt", "export.csv"]), contentType: r.pick(["text/csv", "text/plain", "application/vnd.ms-excel"]), content });
-  const body = multipartBody(parts, boundary);
-  return {
-    index,
-    class: "csv",
-    method: "POST",
-    path: `/api/v1/builds/${fx.buildId}/runs`,
-    caller: r.bool(0.9) ? { auth: r.bool(0.8) ? "token" : "cookie", role: r.pick(["technician", "engineer", "admin"] as const) } : caller(r, "technician"),
-    headers: { "content-type": `multipart/form-data; boundary=${boundary}` },
-    body,
-    summary: `POST /api/v1/builds/${fx.buildId}/runs csv(${label}) ${content.length} bytes`,
-  };
 }
 
 /** The `index`th input of the campaign seeded `seed`; its class follows CLASS_WEIGHTS. */
