@@ -1,10 +1,11 @@
 import type { Knex } from "knex";
 import { whereRunFilter, type RunFilter, type RunStatus, type Verdict } from "./runs";
 import { cursorColumn } from "./pagination";
+import type { RunFigureColumns } from "./run-rows";
 import { db } from "../index";
 
 /** One run as the export writes it: the runs table's columns plus its tweak, flags and metadata. */
-export interface RunExportRow {
+export interface RunExportRow extends RunFigureColumns {
   id: string;
   createdAt: Date;
   originalFilename: string;
@@ -21,12 +22,6 @@ export interface RunExportRow {
   tweakNote: string | null;
   predictedHz: number | null;
   measuredHz: number | null;
-  frequencyUncertaintyHz: number | null;
-  driftPpm: number | null;
-  impliedExtraCapacitanceF: number | null;
-  fundamentalVpk: number | null;
-  thdPercent: number | null;
-  worstHarmonicDbc: number | null;
   inRecordDriftPpm: number | null;
   verdict: Verdict | null;
   /** Rules the run's analysis flagged, sorted. */

@@ -4,7 +4,7 @@ import type { Knex } from "knex";
 import type { DesignSpec, SpecCheck } from "@/lib/spec/types";
 import { db } from "../index";
 import { getRun } from "./run-detail";
-import type { Run, RunSnapshot, RunStatus, Verdict } from "./run-rows";
+import type { Run, RunFigureColumns, RunSnapshot, RunStatus, Verdict } from "./run-rows";
 
 export interface CreateRunInput {
   id: string;
@@ -63,17 +63,11 @@ export async function claimRun(id: string, trx: Knex | Knex.Transaction = db()):
   return rows[0]?.attempts ?? null;
 }
 
-export interface RunResultColumns {
+export interface RunResultColumns extends RunFigureColumns {
   engineVersion: string;
   results: Record<string, unknown>;
   plot: unknown;
   measuredHz: number;
-  frequencyUncertaintyHz: number | null;
-  driftPpm: number | null;
-  impliedExtraCapacitanceF: number | null;
-  fundamentalVpk: number | null;
-  thdPercent: number | null;
-  worstHarmonicDbc: number | null;
   inRecordDriftPpm: number | null;
   specChecks: SpecCheck[];
   verdict: Verdict | null;

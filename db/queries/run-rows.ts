@@ -35,8 +35,18 @@ export interface RunSnapshot {
   predictionError?: string;
 }
 
+/** The figures a finished analysis writes in columns of their own beside its result (null before it, or when not measured). */
+export interface RunFigureColumns {
+  frequencyUncertaintyHz: number | null;
+  driftPpm: number | null;
+  impliedExtraCapacitanceF: number | null;
+  fundamentalVpk: number | null;
+  thdPercent: number | null;
+  worstHarmonicDbc: number | null;
+}
+
 /** A run as lists show it (no snapshot, results or plot). */
-export interface RunSummary {
+export interface RunSummary extends RunFigureColumns {
   id: string;
   buildId: string;
   tweakId: string | null;
@@ -46,12 +56,6 @@ export interface RunSummary {
   status: RunStatus;
   predictedHz: number | null;
   measuredHz: number | null;
-  frequencyUncertaintyHz: number | null;
-  driftPpm: number | null;
-  impliedExtraCapacitanceF: number | null;
-  fundamentalVpk: number | null;
-  thdPercent: number | null;
-  worstHarmonicDbc: number | null;
   verdict: Verdict | null;
   error: string | null;
   duplicateOfRunId: string | null;
