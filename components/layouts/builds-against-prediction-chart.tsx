@@ -5,6 +5,7 @@ import type uPlot from "uplot";
 import { chartColors, themedAxis, withAlpha } from "@/components/charts/chart-theme";
 import { UPlotChart } from "@/components/charts/uplot-chart";
 import { formatDriftLeading } from "@/lib/format/numbers";
+import { drawMarker, type MarkerShape } from "@/components/charts/marker-shapes";
 
 export type ChartBuildKind = "breadboard" | "perfboard" | "pcb" | "other";
 
@@ -22,35 +23,13 @@ export interface BuildsAgainstPredictionChartProps {
   points: BuildPredictionPoint[];
 }
 
-type Shape = "circle" | "square" | "triangle" | "diamond";
-
 // Each kind has a shape and a colour of our palette, so the chart reads in greyscale too.
-const KIND_LOOK: Record<ChartBuildKind, { shape: Shape; color: string; word: string; glyph: string }> = {
+const KIND_LOOK: Record<ChartBuildKind, { shape: MarkerShape; color: string; word: string; glyph: string }> = {
   breadboard: { shape: "circle", color: chartColors.traceA, word: "Breadboard", glyph: "●" },
   perfboard: { shape: "triangle", color: chartColors.traceC, word: "Perfboard", glyph: "▲" },
   pcb: { shape: "square", color: chartColors.traceB, word: "PCB", glyph: "■" },
   other: { shape: "diamond", color: chartColors.traceD, word: "Other", glyph: "◆" },
 };
-
-function drawShape(ctx: CanvasRenderingContext2D, shape: Shape, x: number, y: number, r: number): void {
-  ctx.beginPath();
-  if (shape === "circle") ctx.arc(x, y, r, 0, 2 * Math.PI);
-  else if (shape === "square") ctx.rect(x - r, y - r, 2 * r, 2 * r);
-  else if (shape === "triangle") {
-    ctx.moveTo(x, y - r * 1.2);
-    ctx.lineTo(x + r * 1.1, y + r * 0.9);
-    ctx.lineTo(x - r * 1.1, y + r * 0.9);
-    ctx.closePath();
-  } else {
-    ctx.moveTo(x, y - r * 1.3);
-    ctx.lineTo(x + r * 1.1, y);
-    ctx.lineTo(x, y + r * 1.3);
-    ctx.lineTo(x - r * 1.1, y);
-    ctx.closePath();
-  }
-  ctx.fill();
-  ctx.stroke();
-}
 
 /**
  * Every build of a design at its latest run's drift from prediction, one marker per build, the kind of
@@ -87,7 +66,7 @@ export function BuildsAgainstPredictionChart({ points }: BuildsAgainstPrediction
               const y = u.valToPos(p.driftPpm, "y", true);
               ctx.fillStyle = withAlpha(look.color, 0.85);
               ctx.strokeStyle = chartColors.ink;
-              drawShape(ctx, look.shape, x, y, r);
+              drawMarker(ctx, look.shape, x, y, r);
             });
             ctx.restore();
           },

@@ -5,6 +5,7 @@ import type uPlot from "uplot";
 import { chartColors, themedAxis, withAlpha } from "@/components/charts/chart-theme";
 import { UPlotChart } from "@/components/charts/uplot-chart";
 import { formatDecibels } from "@/lib/format/numbers";
+import { MARKER_GLYPHS, drawMarker, type MarkerShape } from "@/components/charts/marker-shapes";
 
 export interface HarmonicsOverlayBuild {
   buildId: string;
@@ -17,38 +18,15 @@ export interface HarmonicsOverlayChartProps {
   builds: HarmonicsOverlayBuild[];
 }
 
-type Shape = "circle" | "square" | "triangle" | "diamond";
-
 // Build n takes colour and shape n, so overlaid traces stay apart in greyscale too; more than four builds repeat the
 // colours with the next shape.
 const COLORS = [chartColors.traceA, chartColors.traceB, chartColors.traceC, chartColors.traceD];
-const SHAPES: Shape[] = ["circle", "square", "triangle", "diamond"];
-const GLYPHS: Record<Shape, string> = { circle: "●", square: "■", triangle: "▲", diamond: "◆" };
+const SHAPES: MarkerShape[] = ["circle", "square", "triangle", "diamond"];
 const DASHES: number[][] = [[], [6, 3], [2, 3], [8, 3, 2, 3]];
 
 function look(i: number) {
   const shape = SHAPES[(i + Math.floor(i / COLORS.length)) % SHAPES.length];
-  return { color: COLORS[i % COLORS.length], shape, glyph: GLYPHS[shape], dash: DASHES[i % DASHES.length] };
-}
-
-function drawShape(ctx: CanvasRenderingContext2D, shape: Shape, x: number, y: number, r: number): void {
-  ctx.beginPath();
-  if (shape === "circle") ctx.arc(x, y, r, 0, 2 * Math.PI);
-  else if (shape === "square") ctx.rect(x - r, y - r, 2 * r, 2 * r);
-  else if (shape === "triangle") {
-    ctx.moveTo(x, y - r * 1.2);
-    ctx.lineTo(x + r * 1.1, y + r * 0.9);
-    ctx.lineTo(x - r * 1.1, y + r * 0.9);
-    ctx.closePath();
-  } else {
-    ctx.moveTo(x, y - r * 1.3);
-    ctx.lineTo(x + r * 1.1, y);
-    ctx.lineTo(x, y + r * 1.3);
-    ctx.lineTo(x - r * 1.1, y);
-    ctx.closePath();
-  }
-  ctx.fill();
-  ctx.stroke();
+  return { color: COLORS[i % COLORS.length], shape, glyph: MARKER_GLYPHS[shape], dash: DASHES[i % DASHES.length] };
 }
 
 /** The harmonic levels (dBc) of each compared run over one axis of harmonic order, one trace and marker shape per build. */
@@ -84,7 +62,7 @@ export function HarmonicsOverlayChart({ builds }: HarmonicsOverlayChartProps) {
                 if (y === null || y === undefined) return;
                 ctx.fillStyle = withAlpha(l.color, 0.9);
                 ctx.strokeStyle = chartColors.ink;
-                drawShape(ctx, l.shape, u.valToPos(n, "x", true), u.valToPos(y, "y", true), r);
+                drawMarker(ctx, l.shape, u.valToPos(n, "x", true), u.valToPos(y, "y", true), r);
               });
             });
             ctx.restore();
