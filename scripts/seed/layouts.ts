@@ -2,20 +2,18 @@
 // six breadboards of one Colpitts, each adding a steady 10–14 pF (a trusted figure), and two PCBs of one revision
 // adding about 3 pF (a thin one). Each build has two captures, a note-only tweak, and one more capture, all through
 // the real pipeline (stored, registered with a snapshot, queued for the worker). Runs again change nothing.
-import { randomUUID } from "node:crypto";
 import { getProjectByName } from "../../db/queries/projects";
 import { stopSender } from "../../lib/jobs/queue";
 import { createBuild } from "../../lib/logbook/builds";
 import { createDesign } from "../../lib/logbook/designs";
 import { createProject } from "../../lib/logbook/projects";
-import { registerRun } from "../../lib/logbook/runs";
 import { logTweak } from "../../lib/logbook/tweaks";
 import { predictOscillator } from "../../lib/oscillator";
-import { captureObjectKey, ensureBucket, putObject } from "../../lib/storage";
+import { ensureBucket } from "../../lib/storage";
 import { designInputSchema } from "../../lib/validations/design";
-import { runMetadataSchema } from "../../lib/validations/run";
 import { synthCaptureCsv } from "../lib/synth-capture";
 import { asCurrentUser, type LogbookSeedContext } from "./logbook";
+import { storeSeedCapture } from "./store-capture";
 
 const PROJECT = "Layout survey";
 const DAY_MS = 24 * 3600 * 1000;
@@ -86,16 +84,11 @@ export async function seedLayoutSurvey(ctx: LogbookSeedContext): Promise<void> {
           }),
           "utf8",
         );
-        const runId = randomUUID();
-        const objectKey = captureObjectKey(runId);
-        await putObject(objectKey, body, "text/csv");
-        await registerRun(technician, {
-          runId,
+        await storeSeedCapture(technician, {
           buildId: build.id,
-          objectKey,
-          originalFilename: `${plan.label.toLowerCase()}-${i + 1}.csv`,
-          expectedSizeBytes: body.length,
-          meta: runMetadataSchema.parse({ probe: "1", supplyV: "12", temperatureC: "23", note: "", tweakId: i === 2 ? tweakId : undefined }),
+          filename: `${plan.label.toLowerCase()}-${i + 1}.csv`,
+          body,
+          meta: { probe: "1", supplyV: "12", temperatureC: "23", note: "", tweakId: i === 2 ? tweakId : undefined },
           createdAt: tick(),
         });
       }

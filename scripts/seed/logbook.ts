@@ -2,7 +2,6 @@
 // and a Clapp, builds with tweaks, and a few dozen runs whose captures come from the seeded generator. Every
 // capture goes through the real pipeline (stored in object storage, registered with its snapshot, queued), so
 // the worker analyses them once it starts. Runs again change nothing: the step stops if its first project exists.
-import { randomUUID } from "node:crypto";
 import type { User } from "../../db/queries/users";
 import { getProjectByName } from "../../db/queries/projects";
 import type { CurrentUser } from "../../lib/auth/current-user-type";
@@ -11,12 +10,11 @@ import { stopSender } from "../../lib/jobs/queue";
 import { createBuild } from "../../lib/logbook/builds";
 import { createDesign } from "../../lib/logbook/designs";
 import { createProject } from "../../lib/logbook/projects";
-import { registerRun } from "../../lib/logbook/runs";
 import { logTweak } from "../../lib/logbook/tweaks";
-import { captureObjectKey, ensureBucket, putObject } from "../../lib/storage";
+import { ensureBucket } from "../../lib/storage";
 import { designInputSchema } from "../../lib/validations/design";
-import { runMetadataSchema } from "../../lib/validations/run";
 import { synthCaptureCsv, type SynthCaptureOptions } from "../lib/synth-capture";
+import { storeSeedCapture } from "./store-capture";
 
 /** What the seed's earlier steps hand over (scripts/seed.ts SeedContext). */
 export interface LogbookSeedContext {
@@ -234,22 +232,17 @@ export async function seedDemoLogbook(ctx: LogbookSeedContext): Promise<void> {
             }
             seed += 1;
             const body = scopeCapture({ ...step.run, frequencyHz: step.run.frequencyHz * wobble(seed), seed });
-            const runId = randomUUID();
-            const objectKey = captureObjectKey(runId);
-            await putObject(objectKey, body, "text/csv");
-            await registerRun(technician, {
-              runId,
+            await storeSeedCapture(technician, {
               buildId: build.id,
-              objectKey,
-              originalFilename: step.file,
-              expectedSizeBytes: body.length,
-              meta: runMetadataSchema.parse({
+              filename: step.file,
+              body,
+              meta: {
                 probe: "1", // the scope was told about its 10:1 probe, so the file already holds circuit volts
                 supplyV: "12",
                 temperatureC: String(step.temperatureC ?? 23),
                 note: step.note ?? "",
                 tweakId: step.followsTweak ? lastTweakId : undefined,
-              }),
+              },
               createdAt: tick(),
             });
             runs++;

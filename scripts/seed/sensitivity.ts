@@ -3,7 +3,6 @@
 // condition before and after a note-only tweak, and one power-up capture — so the build page's Sensitivity card and
 // the run page's Stability card are filled. It adds to the demo and changes nothing already there; a second run
 // changes nothing (it stops when the build exists).
-import { randomUUID } from "node:crypto";
 import { listBuilds } from "../../db/queries/builds";
 import { getDesign, listDesigns } from "../../db/queries/designs";
 import { getProjectByName } from "../../db/queries/projects";
@@ -11,12 +10,11 @@ import type { User } from "../../db/queries/users";
 import type { Role } from "../../lib/auth/permissions";
 import { stopSender } from "../../lib/jobs/queue";
 import { createBuild } from "../../lib/logbook/builds";
-import { registerRun } from "../../lib/logbook/runs";
 import { logTweak } from "../../lib/logbook/tweaks";
-import { captureObjectKey, ensureBucket, putObject } from "../../lib/storage";
-import { runMetadataSchema } from "../../lib/validations/run";
+import { ensureBucket } from "../../lib/storage";
 import { asCurrentUser } from "./logbook";
 import { plantedHz, plantedVpk, startUpCapture, steadyCapture } from "./sensitivity-captures";
+import { storeSeedCapture } from "./store-capture";
 
 export interface SensitivitySeedContext {
   accounts: Record<Role, User>;
@@ -78,22 +76,17 @@ export async function seedSensitivityBuild(ctx: SensitivitySeedContext, designId
     seed += 1;
     const hz = plantedHz(step.supplyV, step.temperatureC, step.offsetPpm ?? 0);
     const body = step.startUp ? startUpCapture(hz, plantedVpk(step.supplyV), seed) : steadyCapture(hz, plantedVpk(step.supplyV), seed);
-    const runId = randomUUID();
-    const objectKey = captureObjectKey(runId);
-    await putObject(objectKey, body, "text/csv");
-    await registerRun(technician, {
-      runId,
+    await storeSeedCapture(technician, {
       buildId: build.id,
-      objectKey,
-      originalFilename: step.file,
-      expectedSizeBytes: body.length,
-      meta: runMetadataSchema.parse({
+      filename: step.file,
+      body,
+      meta: {
         probe: "1",
         supplyV: String(step.supplyV),
         temperatureC: String(step.temperatureC),
         note: step.note ?? "",
         tweakId: followsTweak ? lastTweakId : undefined,
-      }),
+      },
       createdAt: tick(),
     });
     followsTweak = false;
