@@ -22,6 +22,14 @@ const seconds = (value: number) => formatEngineering(value, "s", 3, { trimZeros:
 const hertz = (value: number) => formatEngineering(value, "Hz", 3, { trimZeros: true });
 const db = (value: number) => `${value.toFixed(1).replace(/^-/, "−")} dBc/Hz`;
 
+/** A measured time against its maximum, with the margin in the message. */
+function maximumSeconds(base: { rule: string; limit: number; unit: string }, value: number, limit: number, what: string): SpecCheck {
+  const margin = limit - value;
+  const passed = margin >= 0;
+  const by = passed ? `inside by ${seconds(margin)}` : `outside by ${seconds(-margin)}`;
+  return judged({ ...base, passed, measured: value, margin, message: `${what} ${seconds(value)} against a maximum of ${seconds(limit)}: ${by}.` });
+}
+
 const NO_STABILITY = "this capture carries no stability figures (it was analysed before they existed)";
 const REANALYSE = "re-analyse the run to compute its stability figures";
 
@@ -60,15 +68,7 @@ export function jitterCheck(spec: DesignSpec, m: SpecMeasurements): SpecCheck | 
       message: `Cannot judge rms jitter against ${seconds(limit)}: it is at the capture's floor of ${seconds(value)}, which is above the limit.`,
     });
   }
-  const margin = limit - value;
-  const passed = margin >= 0;
-  return judged({
-    ...base,
-    passed,
-    measured: value,
-    margin,
-    message: `rms jitter${band} ${seconds(value)} against a maximum of ${seconds(limit)}: ${passed ? `inside by ${seconds(margin)}` : `outside by ${seconds(-margin)}`}.`,
-  });
+  return maximumSeconds(base, value, limit, `rms jitter${band}`);
 }
 
 /** Offsets within this fraction of each other are the same offset (a decade grid written 1e4 or 10 kHz). */
@@ -144,16 +144,7 @@ export function startUpCheck(spec: DesignSpec, m: SpecMeasurements): SpecCheck |
       message: `Cannot judge the start-up time against ${seconds(limit)}: ${why}.`,
     });
   }
-  const value = envelope.startUpS;
-  const margin = limit - value;
-  const passed = margin >= 0;
-  return judged({
-    ...base,
-    passed,
-    measured: value,
-    margin,
-    message: `Start-up to 90 % of the settled amplitude took ${seconds(value)} against a maximum of ${seconds(limit)}: ${passed ? `inside by ${seconds(margin)}` : `outside by ${seconds(-margin)}`}.`,
-  });
+  return maximumSeconds(base, envelope.startUpS, limit, "Start-up to 90 % of the settled amplitude took");
 }
 
 /**
