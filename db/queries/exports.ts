@@ -34,6 +34,9 @@ export interface RunExportRow extends RunFigureColumns {
    * points, period jitter, the first Allan point and the envelope; null on older results. Read by lib/exports.
    */
   stability: Record<string, unknown> | null;
+  /** Set when the run was withdrawn: it stays in the export, marked, so the file accounts for every capture. */
+  withdrawnAt: Date | null;
+  withdrawalReason: string | null;
 }
 
 /** The runs table's filters without paging: the export holds every matching row. */
@@ -69,6 +72,8 @@ interface ExportDbRow {
   created_by_name: string;
   error: string | null;
   stability: Record<string, unknown> | null;
+  withdrawn_at: Date | null;
+  withdrawal_reason: string | null;
 }
 
 function toExportRow(r: ExportDbRow): RunExportRow {
@@ -101,6 +106,8 @@ function toExportRow(r: ExportDbRow): RunExportRow {
     createdByName: r.created_by_name,
     error: r.error,
     stability: r.stability,
+    withdrawnAt: r.withdrawn_at,
+    withdrawalReason: r.withdrawal_reason,
   };
 }
 
@@ -137,6 +144,8 @@ function exportQuery(buildId: string, filter: RunExportFilter, trx: Knex | Knex.
       "r.engine_version",
       "u.name as created_by_name",
       "r.error",
+      "r.withdrawn_at",
+      "r.withdrawal_reason",
       // Only the figures the CSV carries: the curves would add kilobytes a row.
       trx.raw(
         "case when r.results->'stability' is not null then jsonb_build_object('jitter', r.results#>'{stability,jitter}', 'points', r.results#>'{stability,phaseNoise,points}', 'periodJitter', r.results#>'{stability,periodJitter}', 'allan', r.results#>'{stability,allan,points,0}', 'envelope', (r.results#>'{stability,envelope}') - 'curve') end as stability",

@@ -42,6 +42,8 @@ export const RUN_CSV_COLUMNS: readonly Column[] = [
   { header: "Logged by", value: (r) => r.createdByName },
   { header: "Engine version", value: (r) => r.engineVersion },
   { header: "Error", value: (r) => r.error },
+  { header: "Withdrawn (UTC, ISO 8601)", value: (r) => r.withdrawnAt?.toISOString() ?? null },
+  { header: "Withdrawal reason", value: (r) => r.withdrawalReason },
   ...STABILITY_CSV_COLUMNS,
 ];
 

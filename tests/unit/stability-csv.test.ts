@@ -16,6 +16,7 @@ function row(stability: Record<string, unknown> | null, engineVersion: string): 
     supplyV: null, temperatureC: null, note: "", tweakPart: null, tweakFromSi: null, tweakToSi: null, tweakNote: null, predictedHz: null,
     measuredHz: 123456.7, frequencyUncertaintyHz: 0.01, driftPpm: null, impliedExtraCapacitanceF: null, fundamentalVpk: 1, thdPercent: null,
     worstHarmonicDbc: null, inRecordDriftPpm: null, verdict: null, failedRules: [], engineVersion, createdByName: "T", error: null, stability,
+    withdrawnAt: null, withdrawalReason: null,
   };
 }
 
