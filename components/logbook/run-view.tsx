@@ -25,7 +25,7 @@ import { runFigures, specMeasurements } from "./run-results";
 import type { RunContext, RunData, RunPlot } from "./run-types";
 import { SpecVerdictList } from "./spec-verdict-list";
 import { StabilityCard } from "./stability/stability-card";
-import { waveformEnvelopeOf } from "./stability/read-stability";
+import { readStability, waveformEnvelopeOf } from "./stability/read-stability";
 import { TrustWarnings } from "./trust-warnings";
 
 export interface RunViewProps {
@@ -114,7 +114,8 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
   });
 
   const figures = useMemo(() => runFigures(run), [run]);
-  const waveformEnvelope = useMemo(() => waveformEnvelopeOf(run.results), [run.results]);
+  const stability = useMemo(() => readStability(run.results), [run.results]);
+  const waveformEnvelope = useMemo(() => waveformEnvelopeOf(stability, run.results), [stability, run.results]);
   const drift = useMemo<DriftAnalysis | null>(() => {
     if (figures.frequencyHz === null || run.snapshot.predictedHz === null) return null;
     try {
@@ -247,7 +248,7 @@ export function RunView({ initialRun, context, canReanalyse, reanalyse }: RunVie
             <HarmonicsTable figures={figures} limitDbc={limitDbc} />
             <SpursTable spurs={figures.spurs} />
           </div>
-          <StabilityCard results={run.results} />
+          <StabilityCard reading={stability} />
         </>
       ) : null}
 

@@ -29,8 +29,11 @@ export interface WaveformEnvelope {
   kind: "start-up" | "ring-down";
 }
 
-export function waveformEnvelopeOf(results: unknown): WaveformEnvelope | null {
-  const reading = readStability(results);
+/**
+ * @param reading - the run's stability as {@link readStability} read it (read once per page, shared with the card)
+ * @param results - the run's stored result object, for its DC level
+ */
+export function waveformEnvelopeOf(reading: StabilityReading, results: unknown): WaveformEnvelope | null {
   if (reading.status !== "measured") return null;
   const { kind, curve } = reading.stability.envelope;
   if ((kind !== "start-up" && kind !== "ring-down") || !curve || curve.timeS.length < 2) return null;

@@ -4,12 +4,12 @@ import { AllanChart } from "@/components/charts/allan-chart";
 import { EnvelopeChart } from "@/components/charts/envelope-chart";
 import { PhaseNoiseChart } from "@/components/charts/phase-noise-chart";
 import { Card, CardBody, CardHeader } from "@/components/ui/card";
-import { readStability } from "./read-stability";
+import type { StabilityReading } from "./read-stability";
 import { StabilityFigures } from "./stability-figures";
 
 export interface StabilityCardProps {
-  /** The run's stored result object. */
-  results: unknown;
+  /** The run's stability, read once by the page from the stored result (see readStability). */
+  reading: StabilityReading;
 }
 
 function Empty({ children }: { children: string }) {
@@ -20,8 +20,7 @@ function Empty({ children }: { children: string }) {
  * The run's stability: phase noise with its floor, jitter, the Allan deviation within the record, and the
  * start-up or ring-down with its envelope. Every figure at its floor reads "≤"; a missing one says why.
  */
-export function StabilityCard({ results }: StabilityCardProps) {
-  const reading = readStability(results);
+export function StabilityCard({ reading }: StabilityCardProps) {
   return (
     <Card aria-labelledby="stability-title" data-testid="stability-card">
       <CardHeader
