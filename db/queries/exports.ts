@@ -1,7 +1,7 @@
 import type { Knex } from "knex";
 import { whereRunFilter, type RunFilter, type RunStatus, type Verdict } from "./runs";
 import { cursorColumn } from "./pagination";
-import type { RunFigureColumns } from "./run-rows";
+import { figureColumns, type RunFigureColumns } from "./run-rows";
 import { db } from "../index";
 
 /** One run as the export writes it: the runs table's columns plus its tweak, flags and metadata. */
@@ -131,13 +131,7 @@ function exportQuery(buildId: string, filter: RunExportFilter, trx: Knex | Knex.
       "tw.to_value as tweak_to",
       "tw.note as tweak_note",
       "r.predicted_hz",
-      "r.measured_hz",
-      "r.frequency_uncertainty_hz",
-      "r.drift_ppm",
-      "r.implied_extra_capacitance_f",
-      "r.fundamental_vpk",
-      "r.thd_percent",
-      "r.worst_harmonic_dbc",
+      ...figureColumns,
       "r.in_record_drift_ppm",
       "r.verdict",
       trx.raw("array(select f.rule from flags f where f.run_id = r.id order by f.rule) as failed_rules"),

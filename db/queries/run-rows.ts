@@ -133,6 +133,17 @@ export interface RunRow {
   withdrawal_reason: string | null;
 }
 
+/** The measured figures a finished analysis writes in columns of their own (see {@link RunFigureColumns}), with the measured frequency. */
+export const figureColumns = [
+  "r.measured_hz",
+  "r.frequency_uncertainty_hz",
+  "r.drift_ppm",
+  "r.implied_extra_capacitance_f",
+  "r.fundamental_vpk",
+  "r.thd_percent",
+  "r.worst_harmonic_dbc",
+];
+
 export const summaryColumns = [
   "r.id",
   "r.build_id",
@@ -142,13 +153,7 @@ export const summaryColumns = [
   "r.channel",
   "r.status",
   "r.predicted_hz",
-  "r.measured_hz",
-  "r.frequency_uncertainty_hz",
-  "r.drift_ppm",
-  "r.implied_extra_capacitance_f",
-  "r.fundamental_vpk",
-  "r.thd_percent",
-  "r.worst_harmonic_dbc",
+  ...figureColumns,
   "r.verdict",
   "r.error",
   "r.duplicate_of_run_id",
