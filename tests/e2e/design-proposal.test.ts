@@ -5,7 +5,7 @@ import { closeDb } from "@/db/index";
 import { createUser } from "@/db/queries/users";
 import { closeLucia } from "@/lib/auth/lucia";
 import { hashPassword } from "@/lib/auth/password";
-import { keepScreenshot, launchBrowser, watchErrors } from "../helpers/browser";
+import { keepScreenshot, launchBrowser, signedInContext, watchErrors } from "../helpers/browser";
 import { appUrl } from "../helpers/stack";
 import { logSegments, makeDesign, makeLayoutBuild, makePerson, tag } from "../integration/layouts/fixtures";
 
@@ -43,9 +43,7 @@ afterAll(async () => {
 
 describe("proposing values and predicting a new build in Chromium", () => {
   it.each([1280, 390])("proposes_accepts_and_predicts_at_%i_px", { timeout: 60_000 }, async (width) => {
-    const context = await browser.newContext({ viewport: { width, height: 900 } });
-    const session = await context.request.post(`${appUrl()}/api/v1/session`, { data: { email, password: PASSWORD } });
-    expect(session.status()).toBe(201);
+    const context = await signedInContext(browser, { email, password: PASSWORD }, width);
     const page = await context.newPage();
     const errors = watchErrors(page);
 

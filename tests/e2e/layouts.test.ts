@@ -6,7 +6,7 @@ import { createUser } from "@/db/queries/users";
 import { closeLucia } from "@/lib/auth/lucia";
 import { hashPassword } from "@/lib/auth/password";
 import { logSegments, makeDesign, makeLayoutBuild, makePerson, tag } from "../integration/layouts/fixtures";
-import { keepScreenshot, launchBrowser, watchErrors } from "../helpers/browser";
+import { keepScreenshot, launchBrowser, signedInContext, watchErrors } from "../helpers/browser";
 import { appUrl } from "../helpers/stack";
 
 // The Layouts page in real Chromium at a desk's width and a phone's. The figure's builds are stored straight
@@ -40,9 +40,7 @@ afterAll(async () => {
 
 describe("Layouts page in Chromium", () => {
   it.each([1280, 390])("shows_the_figure_and_its_builds_at_%i_px", async (width) => {
-    const context = await browser.newContext({ viewport: { width, height: 900 } });
-    const session = await context.request.post(`${appUrl()}/api/v1/session`, { data: { email, password: PASSWORD } });
-    expect(session.status()).toBe(201);
+    const context = await signedInContext(browser, { email, password: PASSWORD }, width);
     const page = await context.newPage();
     const errors = watchErrors(page);
     await page.goto(`${appUrl()}/layouts?kind=pcb&topology=tank`, { waitUntil: "networkidle" });

@@ -19,7 +19,7 @@ import { completeUpload, requestUploadSlot } from "@/lib/logbook/uploads";
 import { designInputSchema } from "@/lib/validations/design";
 import { runMetadataSchema } from "@/lib/validations/run";
 import { synthCaptureCsv } from "../../scripts/lib/synth-capture";
-import { keepScreenshot, launchBrowser, watchErrors } from "../helpers/browser";
+import { keepScreenshot, launchBrowser, signedInContext, watchErrors } from "../helpers/browser";
 import { appUrl } from "../helpers/stack";
 
 // The build report in real Chromium against the running app. The data is made through the services the pages use:
@@ -95,9 +95,7 @@ afterAll(async () => {
 
 describe("build report in Chromium", () => {
   it("renders_the_report_prints_without_navigation_and_saves_a_pdf", async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    const session = await context.request.post(`${appUrl()}/api/v1/session`, { data: { email: engineer.email, password: engineer.password } });
-    expect(session.status()).toBe(201);
+    const context = await signedInContext(browser, engineer);
     const page = await context.newPage();
     const errors = watchErrors(page);
     await page.goto(`${appUrl()}/builds/${buildId}/report`, { waitUntil: "networkidle" });

@@ -1,11 +1,11 @@
 import { generateIdFromEntropySize } from "lucia";
-import type { Browser, BrowserContext } from "playwright-core";
+import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/db/index";
 import { createUser } from "@/db/queries/users";
 import { closeLucia } from "@/lib/auth/lucia";
 import { hashPassword } from "@/lib/auth/password";
-import { keepScreenshot, launchBrowser, watchErrors } from "../helpers/browser";
+import { keepScreenshot, launchBrowser, signedInContext, watchErrors } from "../helpers/browser";
 import { appUrl } from "../helpers/stack";
 import { logAnalysedRun, logSegments, makeDesign, makeLayoutBuild, makePerson, pF, tag } from "../integration/layouts/fixtures";
 
@@ -44,16 +44,9 @@ afterAll(async () => {
   await closeLucia();
 });
 
-async function signedIn(width: number): Promise<BrowserContext> {
-  const context = await browser.newContext({ viewport: { width, height: 900 } });
-  const session = await context.request.post(`${appUrl()}/api/v1/session`, { data: { email, password: PASSWORD } });
-  expect(session.status()).toBe(201);
-  return context;
-}
-
 describe("withdrawing a run and comparing a chosen run in Chromium", () => {
   it.each([1280, 390])("withdraws_restores_and_compares_at_%i_px", { timeout: 60_000 }, async (width) => {
-    const context = await signedIn(width);
+    const context = await signedInContext(browser, { email, password: PASSWORD }, width);
     const page = await context.newPage();
     const errors = watchErrors(page);
 

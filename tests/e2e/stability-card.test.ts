@@ -16,7 +16,7 @@ import { completeUpload, requestUploadSlot } from "@/lib/logbook/uploads";
 import { designInputSchema } from "@/lib/validations/design";
 import { runMetadataSchema } from "@/lib/validations/run";
 import { synthCaptureCsv, type SynthCaptureOptions } from "../../scripts/lib/synth-capture";
-import { keepScreenshot, launchBrowser, watchErrors } from "../helpers/browser";
+import { keepScreenshot, launchBrowser, signedInContext, watchErrors } from "../helpers/browser";
 import { appUrl } from "../helpers/stack";
 
 // The run page's Stability card in real Chromium against the running app, at a desk's width and a phone's: one steady
@@ -91,9 +91,7 @@ afterAll(async () => {
 });
 
 async function openRun(runId: string, width: number) {
-  const context = await browser.newContext({ viewport: { width, height: 900 } });
-  const session = await context.request.post(`${appUrl()}/api/v1/session`, { data: { email: engineer.email, password: engineer.password } });
-  expect(session.status()).toBe(201);
+  const context = await signedInContext(browser, engineer, width);
   const page = await context.newPage();
   const errors = watchErrors(page);
   await page.goto(`${appUrl()}/runs/${runId}`, { waitUntil: "networkidle" });

@@ -1,7 +1,8 @@
 // Debian's Chromium driven by playwright-core: the real browser of the browser tests.
 import { mkdirSync } from "node:fs";
 import path from "node:path";
-import { chromium, type Browser, type Page } from "playwright-core";
+import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
+import { appUrl } from "./stack";
 
 // Without the background-networking flags Chromium keeps dialling out, and this machine's closed network refuses it.
 const launchArgs = [
@@ -37,4 +38,19 @@ export function watchErrors(page: Page): string[] {
     if (m.type() === "error") errors.push(`console: ${m.text()}`);
   });
   return errors;
+}
+
+/**
+ * A browser context of the given width signed in over POST /api/v1/session (the session cookie lands in the
+ * context), for tests that start on a signed-in page rather than test the sign-in form.
+ * @throws Error naming the status when the sign-in is refused
+ */
+export async function signedInContext(browser: Browser, person: { email: string; password: string }, width = 1280, height = 900): Promise<BrowserContext> {
+  const context = await browser.newContext({ viewport: { width, height } });
+  const session = await context.request.post(`${appUrl()}/api/v1/session`, { data: { email: person.email, password: person.password } });
+  if (session.status() !== 201) {
+    await context.close();
+    throw new Error(`signing in ${person.email} answered ${session.status()}: ${(await session.text()).slice(0, 200)}`);
+  }
+  return context;
 }
