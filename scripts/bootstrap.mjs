@@ -194,6 +194,8 @@ async function main() {
       : `postgres://postgres@127.0.0.1:${stack.pgPort}/${stack.db}`,
     S3_ENDPOINT: `http://127.0.0.1:${stack.s3Port}`,
     S3_BUCKET: stack.bucket,
+    // Where the fake S3 keeps its files; the fuzz campaign counts stored objects there (see scripts/fuzz/campaign.ts).
+    FAKE_S3_DIR: path.join(dataRoot, "s3"),
     SMTP_HOST: "127.0.0.1",
     SMTP_PORT: String(stack.smtpPort),
     FAKE_SMTP_API_URL: `http://127.0.0.1:${stack.smtpApiPort}`,
@@ -206,7 +208,7 @@ async function main() {
 
   const s3 = spawnChild("fake S3", [
     "--import", "tsx", "fake-s3/main.ts",
-    "--port", String(stack.s3Port), "--dir", path.join(dataRoot, "s3"), "--bucket", stack.bucket,
+    "--port", String(stack.s3Port), "--dir", env.FAKE_S3_DIR, "--bucket", stack.bucket,
     "--origin", appUrl, "--origin", `http://localhost:${stack.appPort}`,
   ], env);
   const smtp = spawnChild("fake SMTP", [

@@ -34,4 +34,5 @@ it(`fuzz campaign: ${inputs} inputs, seed ${seed}`, async () => {
   // mean the check did not really run.
   expect(report.uncheckedRefusals.length, text).toBeLessThan(report.refused / 100);
   expect(report.health.failures, text).toBe(0);
+  expect(report.objects.counted, text).toBe(report.objects.listed);
 });
