@@ -89,11 +89,27 @@ function runOnce(command: string[]): Sample {
   return { seconds, maxRssMB: rss ? Number(rss[1]) / 1024 : null };
 }
 
+const REFPIPE_PACKAGES = ["python3-numpy", "python3-pandas"];
+
+const hasNumpyAndPandas = () => spawnSync(PYTHON, ["-c", "import numpy, pandas"], { encoding: "utf8" }).status === 0;
+
+/**
+ * Undefined when the reference pipeline can run, else why not. Its Debian packages are installed here when
+ * missing and this runs as root (as `npm start` installs PostgreSQL), so a fresh machine measures both sides.
+ */
 function pythonStatus(): string | undefined {
   if (!existsSync(PYTHON)) return `${PYTHON} not found`;
   if (!existsSync(REFPIPE)) return `${REFPIPE} not found`;
-  const probe = spawnSync(PYTHON, ["-c", "import numpy, pandas"], { encoding: "utf8" });
-  return probe.status === 0 ? undefined : "python3-numpy/python3-pandas are not installed (apt-get install -y python3-numpy python3-pandas)";
+  if (hasNumpyAndPandas()) return undefined;
+  const install = `apt-get install -y ${REFPIPE_PACKAGES.join(" ")}`;
+  if (process.getuid?.() !== 0) return `${REFPIPE_PACKAGES.join("/")} are not installed (${install})`;
+  console.log(`installing the reference pipeline's Debian packages: ${REFPIPE_PACKAGES.join(", ")}`);
+  const env = { ...process.env, DEBIAN_FRONTEND: "noninteractive" };
+  for (const args of [["update", "-qq"], ["install", "-y", "-qq", ...REFPIPE_PACKAGES]]) {
+    const step = spawnSync("apt-get", args, { encoding: "utf8", env });
+    if (step.status !== 0) return `apt-get ${args.join(" ")} failed (${step.status}): ${(step.stderr ?? "").trim().split("\n").slice(-2).join(" ")}`;
+  }
+  return hasNumpyAndPandas() ? undefined : `${install} finished, but python3 still cannot import numpy and pandas`;
 }
 
 function measure(contenders: Contender[], runs: number): Map<string, Sample[]> {
