@@ -34,5 +34,6 @@ it(`fuzz campaign: ${inputs} inputs, seed ${seed}`, async () => {
   // mean the check did not really run.
   expect(report.uncheckedRefusals.length, text).toBeLessThan(report.refused / 100);
   expect(report.health.failures, text).toBe(0);
+  expect(report.objects.listed, text).not.toBeNull();
   expect(report.objects.counted, text).toBe(report.objects.listed);
 });

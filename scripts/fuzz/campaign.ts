@@ -73,7 +73,7 @@ export interface CampaignReport {
   uncheckedRefusals: Failure[];
   health: { samples: number; failures: number; p50Ms: number; p95Ms: number; maxMs: number };
   /** At the end: the objects as the S3 API lists them and as the per-input check counted them; they must agree. */
-  objects: { listed: number; counted: number };
+  objects: { listed: number | null; counted: number | null };
 }
 
 const agent = new http.Agent({ keepAlive: true, maxSockets: 2 });
@@ -230,19 +230,22 @@ export async function snapshot(): Promise<Snapshot> {
 }
 
 /**
- * A snapshot, tried again when the fake S3 fails a listing (s3rver answers InternalError now and then when a file
- * changes under it mid-listing); null when three tries failed, so one flaky listing cannot end the campaign.
+ * `read`, tried again when it throws: s3rver answers InternalError now and then when a file changes under it
+ * mid-listing, and a counted folder can lose a file between readdir and the count. Null when all tries failed.
  */
-async function trySnapshot(): Promise<Snapshot | null> {
-  for (let attempt = 0; attempt < 3; attempt++) {
+async function withRetries<T>(read: () => Promise<T>, tries = 5): Promise<T | null> {
+  for (let attempt = 0; attempt < tries; attempt++) {
     try {
-      return await snapshot();
+      return await read();
     } catch {
       await new Promise((r) => setTimeout(r, 250 * (attempt + 1)));
     }
   }
   return null;
 }
+
+/** A snapshot, or null when it could not be taken, so one flaky listing cannot end the campaign. */
+const trySnapshot = (): Promise<Snapshot | null> => withRetries(snapshot);
 
 function differences(before: Snapshot, after: Snapshot): string {
   return (Object.keys(after) as (keyof Snapshot)[])
@@ -372,7 +375,9 @@ export async function runCampaign(options: CampaignOptions): Promise<CampaignRep
     healthFigures = await health.stop();
   }
   const durationMs = performance.now() - started;
-  const [listed, counted] = await Promise.all([listedObjectCount(), objectCount()]);
+  // Analyses still running only read the bucket, so counting one way after the other compares like with like.
+  const listed = await withRetries(listedObjectCount, 10);
+  const counted = await withRetries(objectCount, 10);
   return { ...report, durationMs, health: healthFigures, objects: { listed, counted } };
 }
 
@@ -385,7 +390,7 @@ export function formatReport(r: CampaignReport): string {
     `${"class".padEnd(10)}${pad("inputs", 8)}${allStatuses.map((s) => pad(s, 6)).join("")}`,
     ...INPUT_CLASSES.map((c) => `${c.padEnd(10)}${pad(r.perClass[c], 8)}${allStatuses.map((s) => pad(r.statuses[c][s] ?? 0, 6)).join("")}`),
     `5xx answers: ${r.serverErrors.length}; no answer: ${r.noAnswer.length}; /api refusals not problem+json: ${r.notProblemJson.length}; refusals that stored something: ${r.storedOnRefusal.length}; refusals left unchecked (listing failed): ${r.uncheckedRefusals.length}`,
-    `objects at the end: ${r.objects.listed} listed through the S3 API, ${r.objects.counted} counted by the per-input check`,
+    `objects at the end: ${r.objects.listed ?? "(the listing failed)"} listed through the S3 API, ${r.objects.counted ?? "(the count failed)"} counted by the per-input check`,
     `/api/health during the campaign: ${r.health.samples} checks, ${r.health.failures} failed, p50 ${r.health.p50Ms.toFixed(1)} ms, p95 ${r.health.p95Ms.toFixed(1)} ms, max ${r.health.maxMs.toFixed(1)} ms`,
   ];
   for (const [title, list] of [["5xx", r.serverErrors], ["no answer", r.noAnswer], ["not problem+json", r.notProblemJson], ["stored on refusal", r.storedOnRefusal], ["unchecked", r.uncheckedRefusals]] as const) {

@@ -38,6 +38,7 @@ describe("the seeded fuzz slice", () => {
     expect(report.health.samples).toBeGreaterThan(0);
     expect(report.health.failures, text).toBe(0);
     // The per-input check counts the fake S3's files; the S3 API must list as many, or the check counted the wrong thing.
+    expect(report.objects.listed, text).not.toBeNull();
     expect(report.objects.counted, text).toBe(report.objects.listed);
     expect(report.objects.counted).toBeGreaterThan(0);
   }, 240_000);
