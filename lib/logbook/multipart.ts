@@ -71,8 +71,14 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
   const failAfterDrain = (reject: (err: unknown) => void) => (err: unknown) => void drained.then(() => reject(malformed(err)));
   // busboy emits "close" right after "error"; the rejection waits for the drain, so "close" must not resolve first.
   let parseFailed = false;
-  parser.on("error", () => {
+  // The capture's stream as handed to the caller, until it has had all its bytes.
+  let captureOut: PassThrough | null = null;
+  parser.on("error", (err) => {
     parseFailed = true;
+    // busboy goes on emitting parts after an error (a malformed header, then the file), but the body is unpiped
+    // from it above, so a file part it had begun never ends: its reader would wait for ever (found by the fuzz
+    // campaign as uploads left unanswered). The error ends that stream too, as the request's 400.
+    if (captureOut && !captureOut.writableEnded) captureOut.destroy(malformed(err));
   });
 
   const file = new Promise<{ stream: Readable; filename: string; mimeType: string }>((resolve, reject) => {
@@ -80,7 +86,7 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
       // busboy also raises a body's breaking off (e.g. "Unexpected end of form") on the file stream it is in:
       // a stream only drained here needs a listener too, or that error is uncaught in the server. The parser's
       // own error already answers the request with a 400.
-      if (name !== fileField || fileSeen) {
+      if (name !== fileField || fileSeen || parseFailed) {
         stream.on("error", () => undefined);
         stream.resume();
         return;
@@ -99,6 +105,10 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
       const out = new PassThrough();
       out.on("error", () => undefined);
       stream.on("error", (err) => out.destroy(malformed(err)));
+      stream.on("end", () => {
+        captureOut = null;
+      });
+      captureOut = out;
       stream.pipe(out);
       resolve({ stream: out, filename, mimeType: info.mimeType ?? "" });
     });

@@ -55,6 +55,22 @@ describe("readMultipartCapture on a body that breaks off", () => {
     expect(String(r.fileError)).toMatch(/characters long/);
   });
 
+  // Found by the full campaign: busboy reports the malformed header of a part (a NUL in its name) and then goes
+  // on to the file part after it; the body was already unpiped, so that file's stream never ended and the
+  // upload was never answered. The reader must get the 400 instead of waiting.
+  it("after a malformed part header, with the file part that follows: the file's reader gets the 400", async () => {
+    const request = truncatedBody([
+      'Content-Disposition: form-data; name="nul\u0000inside"\r\n\r\n@SUM(1+1)',
+      `Content-Disposition: form-data; name="file"; filename="a.csv"\r\nContent-Type: text/csv\r\n\r\n${"0,1\n".repeat(4000)}`,
+    ]);
+    const settled = await Promise.race([settleWithoutUncaught(request), new Promise<"hangs">((r) => setTimeout(() => r("hangs"), 5_000))]);
+    expect(settled).not.toBe("hangs");
+    if (settled === "hangs") return;
+    expect(settled.uncaught).toEqual([]);
+    expect(String(settled.fileError)).toMatch(/cannot be read: Malformed part header/);
+    expect(String(settled.fieldsError)).toMatch(/cannot be read: Malformed part header/);
+  }, 10_000);
+
   it("with a text part that has no name parameter: no uncaught rejection", async () => {
     const boundary = "----noname";
     const body = `--${boundary}\r\nContent-Disposition: form-data; filename\r\n\r\nvalue\r\n--${boundary}\r\nContent-Disposition: form-data\r\n\r\nx\r\n--${boundary}--\r\n`;
