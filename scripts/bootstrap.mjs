@@ -229,10 +229,11 @@ async function main() {
   }
 
   const nextArgs = mode === "dev" ? ["dev", "-H", "127.0.0.1", "-p", String(stack.appPort)] : ["start", "-H", "127.0.0.1", "-p", String(stack.appPort)];
-  // The preload lets the app see the socket's address, which Next hides behind a client's own X-Forwarded-For.
+  // The preloads let the app see the socket's address, which Next hides behind a client's own X-Forwarded-For,
+  // and answer an Expect header it cannot meet with problem+json instead of Node's bare 417.
   // Tests send X-Forwarded-For to stand for many clients, so there the test client is the trusted proxy.
   const appEnv = testing ? { ...env, TRUST_PROXY: process.env.TRUST_PROXY ?? "127.0.0.1" } : env;
-  const app = spawnChild("web app", ["--import", "./scripts/lib/peer-address.mjs", "node_modules/next/dist/bin/next", ...nextArgs], appEnv, { quiet: testing });
+  const app = spawnChild("web app", ["--import", "./scripts/lib/peer-address.mjs", "--import", "./scripts/lib/expectation-failed.mjs", "node_modules/next/dist/bin/next", ...nextArgs], appEnv, { quiet: testing });
   if (existsSync(path.join(root, "scripts", "worker.ts"))) {
     spawnChild("analysis worker", ["--import", "tsx", "scripts/worker.ts"], env);
   }
