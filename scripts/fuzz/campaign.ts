@@ -9,12 +9,13 @@ import { generateIdFromEntropySize } from "lucia";
 import { readdir } from "node:fs/promises";
 import http from "node:http";
 import path from "node:path";
-import { ListObjectsV2Command, S3Client } from "@aws-sdk/client-s3";
+import { S3Client } from "@aws-sdk/client-s3";
 import { db } from "../../db/index";
 import { createUser } from "../../db/queries/users";
 import { createApiToken } from "../../lib/auth/api-tokens";
 import { hashPassword } from "../../lib/auth/password";
 import { env } from "../../lib/env";
+import { bucketKeys } from "../lib/bucket-keys";
 import { synthCaptureCsv } from "../lib/synth-capture";
 import { INPUT_CLASSES, inputAt, type CallerRef, type FixtureIds, type FuzzInput, type InputClass, type Role } from "./inputs";
 import { Random } from "./random";
@@ -187,7 +188,7 @@ export async function createFixture(baseUrl: string, label = "fuzz"): Promise<Fi
 
 let s3: S3Client | undefined;
 
-/** Every object in the bucket, counted through the S3 API (ListObjectsV2, page by page). */
+/** Every object in the bucket, counted through the S3 API (a listing, page by page). */
 export async function listedObjectCount(): Promise<number> {
   const e = env();
   s3 ??= new S3Client({
@@ -196,14 +197,7 @@ export async function listedObjectCount(): Promise<number> {
     forcePathStyle: e.S3_FORCE_PATH_STYLE,
     credentials: { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY },
   });
-  let count = 0;
-  let token: string | undefined;
-  do {
-    const page = await s3.send(new ListObjectsV2Command({ Bucket: e.S3_BUCKET, ContinuationToken: token }));
-    count += page.KeyCount ?? page.Contents?.length ?? 0;
-    token = page.IsTruncated ? page.NextContinuationToken : undefined;
-  } while (token);
-  return count;
+  return (await bucketKeys(s3, e.S3_BUCKET)).length;
 }
 
 // s3rver keeps each object as "<key>._S3rver_object" (beside its metadata) under <directory>/<bucket>.

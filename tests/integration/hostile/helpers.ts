@@ -2,7 +2,8 @@
 // "clear 4xx" contract every refusal must meet, raw HTTP for requests supertest would tidy up, and the
 // hostile strings the fuzzers mix in.
 import net from "node:net";
-import { ListObjectsV2Command, S3Client } from "@aws-sdk/client-s3";
+import { S3Client } from "@aws-sdk/client-s3";
+import { bucketKeys as listBucketKeys } from "../../../scripts/lib/bucket-keys";
 import type { Response } from "supertest";
 import request from "supertest";
 import { expect } from "vitest";
@@ -31,15 +32,8 @@ function bucketClient(): S3Client {
 }
 
 /** Every object key in the test bucket (S3_BUCKET), all pages. */
-export async function bucketKeys(): Promise<string[]> {
-  const keys: string[] = [];
-  let token: string | undefined;
-  do {
-    const page = await bucketClient().send(new ListObjectsV2Command({ Bucket: env().S3_BUCKET, ContinuationToken: token }));
-    for (const o of page.Contents ?? []) if (o.Key) keys.push(o.Key);
-    token = page.IsTruncated ? page.NextContinuationToken : undefined;
-  } while (token);
-  return keys;
+export function bucketKeys(): Promise<string[]> {
+  return listBucketKeys(bucketClient(), env().S3_BUCKET);
 }
 
 /** Row counts of the logbook tables and the number of objects in the bucket. */
