@@ -30,7 +30,7 @@ it(`fuzz campaign: ${inputs} inputs, seed ${seed}`, async () => {
   expect(report.noAnswer, text).toEqual([]);
   expect(report.storedOnRefusal, text).toEqual([]);
   expect(report.notProblemJson, text).toEqual([]);
-  // A listing the fake S3 failed three times in a row leaves that one refusal unchecked; more than a few would
+  // A snapshot that failed five tries in a row leaves that one refusal unchecked; more than a few would
   // mean the check did not really run.
   expect(report.uncheckedRefusals.length, text).toBeLessThan(report.refused / 100);
   expect(report.health.failures, text).toBe(0);

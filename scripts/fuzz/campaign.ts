@@ -70,7 +70,7 @@ export interface CampaignReport {
   noAnswer: Failure[];
   notProblemJson: Failure[];
   storedOnRefusal: Failure[];
-  /** Refusals whose storage check could not run (the fake S3 failed the listing three times). */
+  /** Refusals whose storage check could not run (the snapshot after them failed five tries in a row). */
   uncheckedRefusals: Failure[];
   health: { samples: number; failures: number; p50Ms: number; p95Ms: number; maxMs: number };
   /** At the end: the objects as the S3 API lists them and as the per-input check counted them; they must agree. */

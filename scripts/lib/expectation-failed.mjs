@@ -1,7 +1,7 @@
 // Preloaded into the web app (`node --import ./scripts/lib/expectation-failed.mjs …next start`): answers a request
 // whose Expect header asks for anything but 100-continue with a 417 problem+json that names the header. Without a
 // 'checkExpectation' listener Node's HTTP server answers such a request itself, before Next sees it, with a bare
-// 417 and no body (RFC 9110 §10.1.1 lets a server refuse an expectation it cannot meet; it should say which).
+// 417 and no body. RFC 9110 §10.1.1 lets a server refuse an expectation it cannot meet; this answer says which.
 import http from "node:http";
 
 const MAX_SHOWN_CHARS = 80;
