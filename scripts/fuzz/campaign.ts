@@ -383,7 +383,7 @@ export function formatReport(r: CampaignReport): string {
     `fuzz campaign: seed ${r.seed}, ${r.inputs} inputs in ${(r.durationMs / 1000).toFixed(1)} s (${r.accepted} accepted, ${r.refused} refused)`,
     `${"class".padEnd(10)}${pad("inputs", 8)}${allStatuses.map((s) => pad(s, 6)).join("")}`,
     ...INPUT_CLASSES.map((c) => `${c.padEnd(10)}${pad(r.perClass[c], 8)}${allStatuses.map((s) => pad(r.statuses[c][s] ?? 0, 6)).join("")}`),
-    `5xx answers: ${r.serverErrors.length}; no answer: ${r.noAnswer.length}; /api refusals not problem+json: ${r.notProblemJson.length}; refusals that stored something: ${r.storedOnRefusal.length}; refusals left unchecked (listing failed): ${r.uncheckedRefusals.length}`,
+    `5xx answers: ${r.serverErrors.length}; no answer: ${r.noAnswer.length}; /api refusals not problem+json: ${r.notProblemJson.length}; refusals that stored something: ${r.storedOnRefusal.length}; refusals left unchecked (no snapshot): ${r.uncheckedRefusals.length}`,
     `objects at the end: ${r.objects.listed ?? "(the listing failed)"} listed through the S3 API, ${r.objects.counted ?? "(the count failed)"} counted by the per-input check`,
     `/api/health during the campaign: ${r.health.samples} checks, ${r.health.failures} failed, p50 ${r.health.p50Ms.toFixed(1)} ms, p95 ${r.health.p95Ms.toFixed(1)} ms, max ${r.health.maxMs.toFixed(1)} ms`,
   ];
