@@ -13,11 +13,8 @@ import { appUrl } from "../../helpers/stack";
 // compared, which a few slow samples do not move. Every address is a test account or an unused address under
 // .test (RFC 2606), and every message lands in the fake SMTP server.
 
-/**
- * How far apart the two medians may be. Before the change the e-mail alone added ≈ 100–140 ms, which this still
- * catches; an idle machine shows the medians within 1–2 ms, and the margin leaves room for a loaded CI machine.
- */
-const MEDIAN_TOLERANCE_MS = 40;
+/** How far apart the two medians may be. Before the change the e-mail alone added ≈ 100–140 ms. */
+const MEDIAN_TOLERANCE_MS = 20;
 const PAIRS = 24;
 
 let admin: TestPerson;
