@@ -71,7 +71,7 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
   const failAfterDrain = (reject: (err: unknown) => void) => (err: unknown) => void drained.then(() => reject(malformed(err)));
   // busboy emits "close" right after "error"; the rejection waits for the drain, so "close" must not resolve first.
   let parseFailed = false;
-  // The capture's stream as handed to the caller, until it has had all its bytes.
+  // The capture's stream as handed to the caller; the pipe ends it (writableEnded) once it has had all its bytes.
   let captureOut: PassThrough | null = null;
   parser.on("error", (err) => {
     parseFailed = true;
@@ -105,9 +105,6 @@ export function readMultipartCapture(request: Request, fileField = "file"): Mult
       const out = new PassThrough();
       out.on("error", () => undefined);
       stream.on("error", (err) => out.destroy(malformed(err)));
-      stream.on("end", () => {
-        captureOut = null;
-      });
       captureOut = out;
       stream.pipe(out);
       resolve({ stream: out, filename, mimeType: info.mimeType ?? "" });
