@@ -7,6 +7,7 @@ import { existsSync, mkdirSync, readFileSync, rmSync, statSync, readdirSync } fr
 import net from "node:net";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { aptInstall } from "./lib/apt.mjs";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const mode = process.argv[2];
@@ -37,17 +38,6 @@ class SetupError extends Error {}
 function run(cmd, args, opts = {}) {
   const r = spawnSync(cmd, args, { cwd: root, stdio: "inherit", ...opts });
   if (r.status !== 0) throw new SetupError(`${cmd} ${args.join(" ")} failed with exit ${r.status}`);
-}
-
-const isRoot = process.getuid?.() === 0;
-
-function aptInstall(packages) {
-  if (!isRoot) throw new SetupError(`missing Debian packages (${packages.join(", ")}); install them with: sudo apt-get install -y ${packages.join(" ")}`);
-  log(`installing Debian packages: ${packages.join(", ")}`);
-  run("apt-get", ["update", "-qq"]);
-  run("apt-get", ["install", "-y", "-qq", ...packages], {
-    env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" },
-  });
 }
 
 function ensureNodeModules() {
@@ -139,8 +129,8 @@ process.on("SIGTERM", () => shutdown(143));
 async function main() {
   ensureNodeModules();
   const pgLib = await import("./lib/postgres.mjs");
-  if (!pgLib.findPgBin()) aptInstall(["postgresql"]);
-  if (testing && !existsSync("/usr/bin/chromium")) aptInstall(["chromium"]);
+  if (!pgLib.findPgBin()) aptInstall(["postgresql"], log);
+  if (testing && !existsSync("/usr/bin/chromium")) aptInstall(["chromium"], log);
   const pgBin = pgLib.findPgBin();
 
   const dataRoot = path.join(root, stack.data);

@@ -21,6 +21,7 @@ import { spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
 import { loadavg } from "node:os";
 import path from "node:path";
+import { aptInstall } from "../lib/apt.mjs";
 import { ensureBenchCapture } from "./capture-files";
 
 const ROOT = path.resolve(import.meta.dirname, "../..");
@@ -101,15 +102,12 @@ function pythonStatus(): string | undefined {
   if (!existsSync(PYTHON)) return `${PYTHON} not found`;
   if (!existsSync(REFPIPE)) return `${REFPIPE} not found`;
   if (hasNumpyAndPandas()) return undefined;
-  const install = `apt-get install -y ${REFPIPE_PACKAGES.join(" ")}`;
-  if (process.getuid?.() !== 0) return `${REFPIPE_PACKAGES.join("/")} are not installed (${install})`;
-  console.log(`installing the reference pipeline's Debian packages: ${REFPIPE_PACKAGES.join(", ")}`);
-  const env = { ...process.env, DEBIAN_FRONTEND: "noninteractive" };
-  for (const args of [["update", "-qq"], ["install", "-y", "-qq", ...REFPIPE_PACKAGES]]) {
-    const step = spawnSync("apt-get", args, { encoding: "utf8", env });
-    if (step.status !== 0) return `apt-get ${args.join(" ")} failed (${step.status}): ${(step.stderr ?? "").trim().split("\n").slice(-2).join(" ")}`;
+  try {
+    aptInstall(REFPIPE_PACKAGES, (line) => console.log(`${line} (for the reference pipeline)`));
+  } catch (error) {
+    return error instanceof Error ? error.message : String(error);
   }
-  return hasNumpyAndPandas() ? undefined : `${install} finished, but python3 still cannot import numpy and pandas`;
+  return hasNumpyAndPandas() ? undefined : `${REFPIPE_PACKAGES.join(" and ")} are installed, but python3 still cannot import numpy and pandas`;
 }
 
 function measure(contenders: Contender[], runs: number): Map<string, Sample[]> {

@@ -1,0 +1,1 @@
+export function aptInstall(packages: string[], log: (line: string) => void): void;
