@@ -9,13 +9,12 @@ import { generateIdFromEntropySize } from "lucia";
 import { readdir } from "node:fs/promises";
 import http from "node:http";
 import path from "node:path";
-import { S3Client } from "@aws-sdk/client-s3";
 import { db } from "../../db/index";
 import { createUser } from "../../db/queries/users";
 import { createApiToken } from "../../lib/auth/api-tokens";
 import { hashPassword } from "../../lib/auth/password";
 import { env } from "../../lib/env";
-import { bucketKeys } from "../lib/bucket-keys";
+import { appBucketKeys, closeAppBucketClient } from "../lib/bucket-keys";
 import { synthCaptureCsv } from "../lib/synth-capture";
 import { INPUT_CLASSES, inputAt, type CallerRef, type FixtureIds, type FuzzInput, type InputClass, type Role } from "./inputs";
 import { Random } from "./random";
@@ -186,18 +185,9 @@ export async function createFixture(baseUrl: string, label = "fuzz"): Promise<Fi
   };
 }
 
-let s3: S3Client | undefined;
-
 /** Every object in the bucket, counted through the S3 API (a listing, page by page). */
 export async function listedObjectCount(): Promise<number> {
-  const e = env();
-  s3 ??= new S3Client({
-    region: e.S3_REGION,
-    endpoint: e.S3_ENDPOINT || undefined,
-    forcePathStyle: e.S3_FORCE_PATH_STYLE,
-    credentials: { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY },
-  });
-  return (await bucketKeys(s3, e.S3_BUCKET)).length;
+  return (await appBucketKeys()).length;
 }
 
 // s3rver keeps each object as "<key>._S3rver_object" (beside its metadata) under <directory>/<bucket>.
@@ -249,8 +239,7 @@ function differences(before: Snapshot, after: Snapshot): string {
 }
 
 export function closeCampaignClients(): void {
-  s3?.destroy();
-  s3 = undefined;
+  closeAppBucketClient();
   agent.destroy();
 }
 

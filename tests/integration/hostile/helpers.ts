@@ -2,13 +2,11 @@
 // "clear 4xx" contract every refusal must meet, raw HTTP for requests supertest would tidy up, and the
 // hostile strings the fuzzers mix in.
 import net from "node:net";
-import { S3Client } from "@aws-sdk/client-s3";
-import { bucketKeys as listBucketKeys } from "../../../scripts/lib/bucket-keys";
+import { appBucketKeys, closeAppBucketClient } from "../../../scripts/lib/bucket-keys";
 import type { Response } from "supertest";
 import request from "supertest";
 import { expect } from "vitest";
 import { db } from "@/db/index";
-import { env } from "@/lib/env";
 import { appUrl } from "../../helpers/stack";
 
 /** The one seed of every property in these files, so a failure replays exactly. */
@@ -18,23 +16,8 @@ export const FUZZ_SEED = 20_261_201;
 const STORED_TABLES = ["projects", "designs", "design_revisions", "builds", "tweaks", "runs", "upload_slots"] as const;
 export type StoredCounts = Record<(typeof STORED_TABLES)[number] | "objects", number>;
 
-let s3: S3Client | undefined;
-
-function bucketClient(): S3Client {
-  const e = env();
-  s3 ??= new S3Client({
-    region: e.S3_REGION,
-    endpoint: e.S3_ENDPOINT || undefined,
-    forcePathStyle: e.S3_FORCE_PATH_STYLE,
-    credentials: { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY },
-  });
-  return s3;
-}
-
 /** Every object key in the test bucket (S3_BUCKET), all pages. */
-export function bucketKeys(): Promise<string[]> {
-  return listBucketKeys(bucketClient(), env().S3_BUCKET);
-}
+export const bucketKeys = appBucketKeys;
 
 /** Row counts of the logbook tables and the number of objects in the bucket. */
 export async function storedCounts(): Promise<StoredCounts> {
@@ -44,10 +27,7 @@ export async function storedCounts(): Promise<StoredCounts> {
   return counts;
 }
 
-export function closeBucketClient(): void {
-  s3?.destroy();
-  s3 = undefined;
-}
+export const closeBucketClient = closeAppBucketClient;
 
 export interface Answer {
   status: number;
