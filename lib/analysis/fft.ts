@@ -123,3 +123,65 @@ export function realFft(input: Float64Array, out?: Float64Array): Float64Array {
   fftPlan(size, true, true).realTransform(result, input);
   return result;
 }
+
+// The twiddles of the split step come from a rotation restarted from exact values every this many
+// bins, so its round-off (about an ulp a step) cannot build up.
+const TWIDDLE_BLOCK = 1024;
+
+/**
+ * Adds |X[k]|² of a real sequence's DFT to power[k] for k = 0..N/2, through a complex FFT of half
+ * the length: the even and odd samples as one complex sequence z[n] = x[2n] + i·x[2n+1], then
+ * X[k] = E[k] + e^(−2πik/N)·O[k] with E[k] = (Z[k] + Z*[M−k])/2 and O[k] = (Z[k] − Z*[M−k])/2i,
+ * M = N/2 (the standard split, e.g. Numerical Recipes §12.3). fft.js's real transform runs a full
+ * N-point pass; this takes 0.6–0.7 of its time and half its output buffer. The powers agree with it to
+ * ~1e-15 of the largest bin (tests/unit/analysis/fft-power.test.ts).
+ *
+ * @param input - N real samples, N a power of two ≥ 2; read as N/2 interleaved complex values
+ * @param power - N/2 + 1 sums to add to
+ * @param scratch - optional buffer of N numbers for the half-length transform, reused between calls
+ * @returns the scratch buffer, for the next call
+ * @throws RangeError when N is not a power of two ≥ 2 or power is shorter than N/2 + 1
+ */
+export function addRealPower(input: Float64Array, power: Float64Array, scratch?: Float64Array): Float64Array {
+  const size = input.length;
+  if (size < 2 || (size & (size - 1)) !== 0) throw new RangeError(`FFT length must be a power of two ≥ 2, got ${size}`);
+  const half = size / 2;
+  if (power.length < half + 1) throw new RangeError(`power needs ${half + 1} bins, got ${power.length}`);
+  if (size === 2) {
+    // No half-length FFT of one point in fft.js: the two bins directly.
+    power[0] += (input[0] + input[1]) ** 2;
+    power[1] += (input[0] - input[1]) ** 2;
+    return scratch ?? new Float64Array(2);
+  }
+  const z = scratch && scratch.length === size ? scratch : new Float64Array(size);
+  fftPlan(half).transform(z, input);
+  const step = (2 * Math.PI) / size;
+  const rc = Math.cos(step);
+  const rs = Math.sin(step);
+  let wc = 1;
+  let ws = 0;
+  for (let k = 0; k <= half; k++) {
+    if (k % TWIDDLE_BLOCK === 0) {
+      wc = Math.cos(step * k);
+      ws = Math.sin(step * k);
+    }
+    const j = k === half ? 0 : k;
+    const m = k === 0 ? 0 : half - k;
+    const ar = z[2 * j];
+    const ai = z[2 * j + 1];
+    const br = z[2 * m];
+    const bi = -z[2 * m + 1];
+    // E = (a + b)/2; O = (a − b)/(2i) = (Im(a − b) − i·Re(a − b))/2; X = E + (wc − i·ws)·O.
+    const er = 0.5 * (ar + br);
+    const ei = 0.5 * (ai + bi);
+    const or = 0.5 * (ai - bi);
+    const oi = -0.5 * (ar - br);
+    const xr = er + wc * or + ws * oi;
+    const xi = ei + wc * oi - ws * or;
+    power[k] += xr * xr + xi * xi;
+    const nextCos = wc * rc - ws * rs;
+    ws = ws * rc + wc * rs;
+    wc = nextCos;
+  }
+  return z;
+}

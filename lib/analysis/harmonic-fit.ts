@@ -1,3 +1,4 @@
+import { projectChannels, residualSums } from "./harmonic-sums";
 import { inverseDiagonal, solveSymmetric } from "./linear-algebra";
 
 /** Least-squares fit of DC plus harmonics 1..H of a known fundamental. */
@@ -112,10 +113,6 @@ export function separableOrders(
   return { orders, notSeparable };
 }
 
-// The record is walked in blocks that stay in the L1 cache. Each block starts its rotation from
-// exact values, so round-off (about one ulp per step) cannot build up along the record.
-const BLOCK_SAMPLES = 2048;
-
 /**
  * Dirichlet sum Σ_m cos(x·m) over the L centred indices m = n − (L−1)/2:
  * sin(L·x/2) / sin(x/2), with its limit ±L where sin(x/2) vanishes.
@@ -127,187 +124,6 @@ function dirichlet(x: number, length: number): number {
     return (turns * (length - 1)) % 2 === 0 ? length : -length;
   }
   return Math.sin((length * x) / 2) / half;
-}
-
-interface Projections {
-  /** Σy·cos(hωm) for h = 0..H (h = 0 is Σy). */
-  pc: Float64Array;
-  /** Σy·sin(hωm) for h = 1..H at index h − 1. */
-  ps: Float64Array;
-  sumOfSquares: number;
-}
-
-/*
- * The projection kernels below rotate e^{ihωm} sample by sample. A rotation is a chain: each step
- * waits for the last (about 8 cycles), so each block is split in two halves with a chain each,
- * which the CPU runs side by side. That, and accumulators in locals, make these loops about
- * twice as fast as the plain one; they are the hottest code of the engine.
- */
-
-function projectOne(y: Float64Array, start: number, length: number, omega: number, orders: readonly number[]): Projections {
-  const orderCount = orders.length;
-  const centre = (length - 1) / 2;
-  const block = BLOCK_SAMPLES;
-  const pc = new Float64Array(orderCount + 1);
-  const ps = new Float64Array(orderCount);
-  let sumOfSquares = 0;
-  for (let first = 0; first < length; first += block) {
-    const count = Math.min(block, length - first);
-    const half = count >> 1;
-    const a = start + first;
-    const b = a + half;
-    let dc = 0;
-    let squares = 0;
-    for (let j = 0; j < count; j++) {
-      const v = y[a + j];
-      dc += v;
-      squares += v * v;
-    }
-    pc[0] += dc;
-    sumOfSquares += squares;
-    for (let h = 1; h <= orderCount; h++) {
-      const w = orders[h - 1] * omega;
-      const rc = Math.cos(w);
-      const rs = Math.sin(w);
-      let ac = Math.cos(w * (first - centre));
-      let as = Math.sin(w * (first - centre));
-      let bc = Math.cos(w * (first + half - centre));
-      let bs = Math.sin(w * (first + half - centre));
-      let sca = 0;
-      let ssa = 0;
-      let scb = 0;
-      let ssb = 0;
-      for (let j = 0; j < half; j++) {
-        const va = y[a + j];
-        const vb = y[b + j];
-        sca += va * ac;
-        ssa += va * as;
-        scb += vb * bc;
-        ssb += vb * bs;
-        const nextA = ac * rc - as * rs;
-        as = as * rc + ac * rs;
-        ac = nextA;
-        const nextB = bc * rc - bs * rs;
-        bs = bs * rc + bc * rs;
-        bc = nextB;
-      }
-      if (count & 1) {
-        const v = y[a + count - 1];
-        scb += v * bc;
-        ssb += v * bs;
-      }
-      pc[h] += sca + scb;
-      ps[h - 1] += ssa + ssb;
-    }
-  }
-  return { pc, ps, sumOfSquares };
-}
-
-/** {@link projectOne} for two channels at once: the rotations are shared. */
-function projectTwo(
-  y: Float64Array,
-  z: Float64Array,
-  start: number,
-  length: number,
-  omega: number,
-  orders: readonly number[],
-): [Projections, Projections] {
-  const orderCount = orders.length;
-  const centre = (length - 1) / 2;
-  const block = BLOCK_SAMPLES;
-  const out: [Projections, Projections] = [0, 1].map(() => ({
-    pc: new Float64Array(orderCount + 1),
-    ps: new Float64Array(orderCount),
-    sumOfSquares: 0,
-  })) as [Projections, Projections];
-  const [p, q] = out;
-  for (let first = 0; first < length; first += block) {
-    const count = Math.min(block, length - first);
-    const half = count >> 1;
-    const a = start + first;
-    const b = a + half;
-    let dcY = 0;
-    let sqY = 0;
-    let dcZ = 0;
-    let sqZ = 0;
-    for (let j = 0; j < count; j++) {
-      const v = y[a + j];
-      const u = z[a + j];
-      dcY += v;
-      sqY += v * v;
-      dcZ += u;
-      sqZ += u * u;
-    }
-    p.pc[0] += dcY;
-    p.sumOfSquares += sqY;
-    q.pc[0] += dcZ;
-    q.sumOfSquares += sqZ;
-    for (let h = 1; h <= orderCount; h++) {
-      const w = orders[h - 1] * omega;
-      const rc = Math.cos(w);
-      const rs = Math.sin(w);
-      let ac = Math.cos(w * (first - centre));
-      let as = Math.sin(w * (first - centre));
-      let bc = Math.cos(w * (first + half - centre));
-      let bs = Math.sin(w * (first + half - centre));
-      let ycA = 0;
-      let ysA = 0;
-      let ycB = 0;
-      let ysB = 0;
-      let zcA = 0;
-      let zsA = 0;
-      let zcB = 0;
-      let zsB = 0;
-      for (let j = 0; j < half; j++) {
-        const va = y[a + j];
-        const vb = y[b + j];
-        const ua = z[a + j];
-        const ub = z[b + j];
-        ycA += va * ac;
-        ysA += va * as;
-        ycB += vb * bc;
-        ysB += vb * bs;
-        zcA += ua * ac;
-        zsA += ua * as;
-        zcB += ub * bc;
-        zsB += ub * bs;
-        const nextA = ac * rc - as * rs;
-        as = as * rc + ac * rs;
-        ac = nextA;
-        const nextB = bc * rc - bs * rs;
-        bs = bs * rc + bc * rs;
-        bc = nextB;
-      }
-      if (count & 1) {
-        const v = y[a + count - 1];
-        const u = z[a + count - 1];
-        ycB += v * bc;
-        ysB += v * bs;
-        zcB += u * bc;
-        zsB += u * bs;
-      }
-      p.pc[h] += ycA + ycB;
-      p.ps[h - 1] += ysA + ysB;
-      q.pc[h] += zcA + zcB;
-      q.ps[h - 1] += zsA + zsB;
-    }
-  }
-  return out;
-}
-
-function project(
-  ys: readonly Float64Array[],
-  start: number,
-  length: number,
-  omega: number,
-  orders: readonly number[],
-): Projections[] {
-  const out: Projections[] = [];
-  for (let k = 0; k < ys.length; k += 2) {
-    if (k + 1 < ys.length) out.push(...projectTwo(ys[k], ys[k + 1], start, length, omega, orders));
-    else out.push(projectOne(ys[k], start, length, omega, orders));
-  }
-  return out;
 }
 
 function gramMatrices(omega: number, length: number, orders: readonly number[]): { gc: Float64Array; gs: Float64Array } {
@@ -332,75 +148,6 @@ function gramMatrices(omega: number, length: number, orders: readonly number[]):
     }
   }
   return { gc, gs };
-}
-
-/** Σ(y − model)² and Σ(y − DC − fundamental)², sample by sample; optionally the cleaned record. */
-function residuals(
-  y: Float64Array,
-  start: number,
-  length: number,
-  omega: number,
-  dcV: number,
-  cosV: Float64Array,
-  sinV: Float64Array,
-  orders: readonly number[],
-  cleaned: Float64Array | undefined,
-): { noise: number; noiseAndDistortion: number; cleanedSum: number; cleanedSumOfSquares: number } {
-  const orderCount = cosV.length;
-  const centre = (length - 1) / 2;
-  const block = BLOCK_SAMPLES;
-  const distortion = new Float64Array(block);
-  const fundamental = new Float64Array(block);
-  let noise = 0;
-  let noiseAndDistortion = 0;
-  let cleanedSum = 0;
-  let cleanedSumOfSquares = 0;
-  for (let first = 0; first < length; first += block) {
-    const count = Math.min(block, length - first);
-    const half = count >> 1;
-    distortion.fill(0);
-    fundamental.fill(0);
-    for (let h = 1; h <= orderCount; h++) {
-      const target = h === 1 ? fundamental : distortion;
-      const ah = cosV[h - 1];
-      const bh = sinV[h - 1];
-      const w = orders[h - 1] * omega;
-      const rc = Math.cos(w);
-      const rs = Math.sin(w);
-      let ac = Math.cos(w * (first - centre));
-      let as = Math.sin(w * (first - centre));
-      let bc = Math.cos(w * (first + half - centre));
-      let bs = Math.sin(w * (first + half - centre));
-      for (let j = 0; j < half; j++) {
-        target[j] += ah * ac + bh * as;
-        target[half + j] += ah * bc + bh * bs;
-        const nextA = ac * rc - as * rs;
-        as = as * rc + ac * rs;
-        ac = nextA;
-        const nextB = bc * rc - bs * rs;
-        bs = bs * rc + bc * rs;
-        bc = nextB;
-      }
-      if (count & 1) target[count - 1] += ah * bc + bh * bs;
-    }
-    const offset = start + first;
-    for (let j = 0; j < count; j++) {
-      const v = y[offset + j];
-      const nad = v - dcV - fundamental[j];
-      const r = nad - distortion[j];
-      noise += r * r;
-      noiseAndDistortion += nad * nad;
-    }
-    if (cleaned) {
-      for (let j = 0; j < count; j++) {
-        const v = y[offset + j] - dcV - distortion[j];
-        cleaned[offset + j] = v;
-        cleanedSum += v;
-        cleanedSumOfSquares += v * v;
-      }
-    }
-  }
-  return { noise, noiseAndDistortion, cleanedSum, cleanedSumOfSquares };
 }
 
 /**
@@ -462,7 +209,7 @@ export function fitHarmonicsOfChannels(
   const orderCount = orders.length;
   const nc = orderCount + 1;
   const { gc, gs } = gramMatrices(omega, length, orders);
-  const projections = project(ys, start, length, omega, orders);
+  const projections = projectChannels(ys, start, length, omega, orders);
   const coefficientVarianceFactors = orders.map((_, i) => (inverseDiagonal(gc, nc, i + 1) + inverseDiagonal(gs, orderCount, i)) / 2);
 
   return ys.map((y, channel) => {
@@ -492,7 +239,7 @@ export function fitHarmonicsOfChannels(
     // ~90 dB); then, or when the cleaned record is wanted, take the residual sample by sample.
     let cleanedSums: HarmonicFit["cleanedSums"];
     if (cleaned !== undefined || !(noise > 1e-9 * sumOfSquares)) {
-      const sums = residuals(y, start, length, omega, dcV, cosV, sinV, orders, cleaned);
+      const sums = residualSums(y, start, length, omega, dcV, cosV, sinV, orders, cleaned);
       ({ noise, noiseAndDistortion } = sums);
       if (cleaned) cleanedSums = { sum: sums.cleanedSum, sumOfSquares: sums.cleanedSumOfSquares };
     }
