@@ -20,6 +20,12 @@ export interface Spectrum {
   window: WindowName;
   /** Main-lobe half-width of the window in bins of an unpadded FFT (4 for Blackman–Harris). */
   lobeHalfWidthBins: number;
+  /**
+   * The median bin of amplitudeVpk (the element a sort would put at index ⌊n/2⌋): the noise floor
+   * the spur search measures peaks against. Found with the spectrum, so a thread that computes the
+   * spectrum for another (the `analyze` command's worker) spares that one the pass.
+   */
+  medianAmplitudeVpk: number;
 }
 
 /** Options for {@link windowedSpectrum}. */
@@ -88,6 +94,47 @@ function fillWindowed(
 }
 
 /**
+ * The element a sort would put at the middle (index ⌊n/2⌋), found by selection on a copy rather
+ * than by sorting it: linear time, where sorting 2 million bins took a quarter of a second.
+ */
+function median(values: Float64Array): number {
+  const n = values.length;
+  if (n === 0) return 0;
+  const a = Float64Array.from(values);
+  const k = n >> 1;
+  let lo = 0;
+  let hi = n - 1;
+  // Hoare's selection with a median-of-three pivot: after each partition the k-th smallest lies
+  // in the part that holds index k.
+  while (hi > lo) {
+    const mid = (lo + hi) >> 1;
+    let x = a[lo];
+    let y = a[mid];
+    let z = a[hi];
+    if (x > y) [x, y] = [y, x];
+    if (y > z) y = z;
+    const pivot = x > y ? x : y;
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        const t = a[i];
+        a[i] = a[j];
+        a[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else break;
+  }
+  return a[k];
+}
+
+/**
  * Windowed amplitude spectrum of a record, with its mean removed first so the DC term cannot
  * bury a low-frequency tone. The 4-term Blackman–Harris window (−92 dB sidelobes, Harris 1978)
  * keeps leakage of a full-scale fundamental below the harmonics and spurs worth reporting.
@@ -146,6 +193,7 @@ export function windowedSpectrum(
     amplitudeVpk,
     window,
     lobeHalfWidthBins: 4,
+    medianAmplitudeVpk: median(amplitudeVpk),
   };
 }
 

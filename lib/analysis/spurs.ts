@@ -29,47 +29,6 @@ function fold(frequencyHz: number, sampleRateHz: number): number {
   return r <= sampleRateHz / 2 ? r : sampleRateHz - r;
 }
 
-/**
- * The element a sort would put at the middle (index ⌊n/2⌋), found by selection on a copy rather
- * than by sorting it: linear time, where sorting 2 million bins took a quarter of a second.
- */
-function median(values: Float64Array): number {
-  const n = values.length;
-  if (n === 0) return 0;
-  const a = Float64Array.from(values);
-  const k = n >> 1;
-  let lo = 0;
-  let hi = n - 1;
-  // Hoare's selection with a median-of-three pivot: after each partition the k-th smallest lies
-  // in the part that holds index k.
-  while (hi > lo) {
-    const mid = (lo + hi) >> 1;
-    let x = a[lo];
-    let y = a[mid];
-    let z = a[hi];
-    if (x > y) [x, y] = [y, x];
-    if (y > z) y = z;
-    const pivot = x > y ? x : y;
-    let i = lo;
-    let j = hi;
-    while (i <= j) {
-      while (a[i] < pivot) i++;
-      while (a[j] > pivot) j--;
-      if (i <= j) {
-        const t = a[i];
-        a[i] = a[j];
-        a[j] = t;
-        i++;
-        j--;
-      }
-    }
-    if (k <= j) hi = j;
-    else if (k >= i) lo = i;
-    else break;
-  }
-  return a[k];
-}
-
 interface Peak {
   frequencyHz: number;
   amplitudeVpk: number;
@@ -97,7 +56,7 @@ function excludedBins(spectrum: Spectrum, excludedHz: readonly number[]): { excl
 function findPeaks(spectrum: Spectrum, excludedHz: readonly number[]): Peak[] {
   const a = spectrum.amplitudeVpk;
   const { excluded, guard } = excludedBins(spectrum, excludedHz);
-  const threshold = PEAK_OVER_MEDIAN * median(a);
+  const threshold = PEAK_OVER_MEDIAN * spectrum.medianAmplitudeVpk;
   const peaks: Peak[] = [];
   for (let k = 1; k < a.length - 1; k++) {
     if (excluded[k] || !(a[k] > threshold)) continue;
