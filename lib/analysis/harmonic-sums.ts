@@ -227,14 +227,11 @@ export interface ResidualSums {
   noise: number;
   /** Σ(y − DC − fundamental)², V². */
   noiseAndDistortion: number;
-  /** Σ and Σ² of the cleaned record, in index order (0 when none was written). */
-  cleanedSum: number;
-  cleanedSumOfSquares: number;
 }
 
 /**
  * Σ(y − model)² and Σ(y − DC − fundamental)², sample by sample, for the fit DC + Σ_h (cos_h·cos hωm
- * + sin_h·sin hωm); optionally writes the cleaned record y − DC − Σ_{h≥2} harmonics.
+ * + sin_h·sin hωm).
  * @param orders - the fitted orders, orders[0] = 1 (the fundamental)
  */
 export function residualSums(
@@ -246,15 +243,12 @@ export function residualSums(
   cosV: Float64Array,
   sinV: Float64Array,
   orders: readonly number[],
-  cleaned: Float64Array | undefined,
 ): ResidualSums {
   const centre = (length - 1) / 2;
   const distortion = new Float64Array(BLOCK_SAMPLES);
   const fundamental = new Float64Array(BLOCK_SAMPLES);
   let noise = 0;
   let noiseAndDistortion = 0;
-  let cleanedSum = 0;
-  let cleanedSumOfSquares = 0;
   for (let first = 0; first < length; first += BLOCK_SAMPLES) {
     const count = Math.min(BLOCK_SAMPLES, length - first);
     fundamental.fill(0, 0, count);
@@ -263,29 +257,49 @@ export function residualSums(
       addSinusoid(h === 0 ? fundamental : distortion, count, orders[h] * omega, first - centre, cosV[h], sinV[h]);
     }
     const offset = start + first;
-    if (cleaned) {
-      // One loop for both: the same operations per sample as the two apart, in the same order.
-      for (let j = 0; j < count; j++) {
-        const value = y[offset + j];
-        const nad = value - dcV - fundamental[j];
-        const r = nad - distortion[j];
-        noise += r * r;
-        noiseAndDistortion += nad * nad;
-        const v = value - dcV - distortion[j];
-        cleaned[offset + j] = v;
-        cleanedSum += v;
-        cleanedSumOfSquares += v * v;
-      }
-    } else {
-      for (let j = 0; j < count; j++) {
-        const nad = y[offset + j] - dcV - fundamental[j];
-        const r = nad - distortion[j];
-        noise += r * r;
-        noiseAndDistortion += nad * nad;
-      }
+    for (let j = 0; j < count; j++) {
+      const nad = y[offset + j] - dcV - fundamental[j];
+      const r = nad - distortion[j];
+      noise += r * r;
+      noiseAndDistortion += nad * nad;
     }
   }
-  return { noise, noiseAndDistortion, cleanedSum, cleanedSumOfSquares };
+  return { noise, noiseAndDistortion };
+}
+
+/**
+ * Writes the cleaned record y − DC − Σ_{h≥2} harmonics (the distortion taken out, the fundamental
+ * left in) over the span, and returns its Σ and Σ² summed in index order as written.
+ * @param orders - the fitted orders, orders[0] = 1 (the fundamental, which stays)
+ */
+export function writeCleaned(
+  y: Float64Array,
+  start: number,
+  length: number,
+  omega: number,
+  dcV: number,
+  cosV: Float64Array,
+  sinV: Float64Array,
+  orders: readonly number[],
+  cleaned: Float64Array,
+): { sum: number; sumOfSquares: number } {
+  const centre = (length - 1) / 2;
+  const distortion = new Float64Array(BLOCK_SAMPLES);
+  let sum = 0;
+  let sumOfSquares = 0;
+  for (let first = 0; first < length; first += BLOCK_SAMPLES) {
+    const count = Math.min(BLOCK_SAMPLES, length - first);
+    distortion.fill(0, 0, count);
+    for (let h = 1; h < orders.length; h++) addSinusoid(distortion, count, orders[h] * omega, first - centre, cosV[h], sinV[h]);
+    const offset = start + first;
+    for (let j = 0; j < count; j++) {
+      const v = y[offset + j] - dcV - distortion[j];
+      cleaned[offset + j] = v;
+      sum += v;
+      sumOfSquares += v * v;
+    }
+  }
+  return { sum, sumOfSquares };
 }
 
 /**

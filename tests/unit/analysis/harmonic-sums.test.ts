@@ -7,7 +7,7 @@
  * ends where the plain form loses digits (ω near 0 and near π).
  */
 import { describe, expect, it } from "vitest";
-import { projectChannels, residualSums } from "@/lib/analysis/harmonic-sums";
+import { projectChannels, residualSums, writeCleaned } from "@/lib/analysis/harmonic-sums";
 import { SeededRandom } from "../../helpers/signals";
 
 function compensatedSum(terms: (k: number) => number, count: number): number {
@@ -65,7 +65,7 @@ describe("projectChannels", () => {
   });
 });
 
-describe("residualSums", () => {
+describe("residualSums and writeCleaned", () => {
   it.each(OMEGAS)("rebuilds the model and the cleaned record as the per-sample formula at ω = %f", (omega) => {
     const length = 4099;
     const y = record(length, omega, 4);
@@ -83,7 +83,8 @@ describe("residualSums", () => {
       return sum;
     };
     const cleaned = new Float64Array(length);
-    const sums = residualSums(y, 0, length, omega, dcV, cosV, sinV, orders, cleaned);
+    const sums = residualSums(y, 0, length, omega, dcV, cosV, sinV, orders);
+    const cleanedSums = writeCleaned(y, 0, length, omega, dcV, cosV, sinV, orders, cleaned);
     let worst = 0;
     for (let k = 0; k < length; k++) worst = Math.max(worst, Math.abs(cleaned[k] - (y[k] - dcV - model(k, 1))));
     // Volts, against a model of about 1 V: round-off of a few hundred recurrence steps.
@@ -92,6 +93,7 @@ describe("residualSums", () => {
     const noiseAndDistortion = compensatedSum((k) => (y[k] - dcV - model(k, 0) + model(k, 1)) ** 2, length);
     expect(Math.abs(sums.noise - noise) / noise).toBeLessThan(1e-10);
     expect(Math.abs(sums.noiseAndDistortion - noiseAndDistortion) / noiseAndDistortion).toBeLessThan(1e-10);
-    expect(sums.cleanedSum).toBeCloseTo(compensatedSum((k) => cleaned[k], length), 9);
+    expect(cleanedSums.sum).toBeCloseTo(compensatedSum((k) => cleaned[k], length), 9);
+    expect(cleanedSums.sumOfSquares).toBeCloseTo(compensatedSum((k) => cleaned[k] ** 2, length), 8);
   });
 });
