@@ -3,17 +3,15 @@ import { coarseFrequency } from "./coarse-frequency";
 import type { Capture, CaptureChannel } from "./csv-import";
 import { CaptureImportError } from "./errors";
 import { formatSampleRate } from "./format-rate";
-import { frequencyUncertainty } from "./frequency-uncertainty";
-import { fitHarmonics, fitHarmonicsOfChannels } from "./harmonic-fit";
-import { reportHarmonics } from "./harmonic-report";
-import { amplitudeRatioToDb, enobFromSinadDb, sfdrDb, sinadDb, thdFToThdR } from "./metrics";
+import { amplitudeRatioToDb, enobFromSinadDb, sfdrDb, thdFToThdR } from "./metrics";
 import { type PlotData, peakToDbv, spectrumPlot, waveformEnvelope } from "./plot";
-import { fitSine4, type SineFit } from "./sine-fit";
+import { passesFrom } from "./record-passes";
+import { fitSine4 } from "./sine-fit";
 import { coarsePeakHz, type Spectrum, windowedSpectrum } from "./spectrum";
 import { findSpurs, largestOtherBin } from "./spurs";
 import { gainPhaseFromFits } from "./two-channel";
 import { measureStability } from "./stability";
-import { buildWarnings, checkClipping, checkDrift, checkEnvelope, checkTone } from "./warnings";
+import { buildWarnings } from "./warnings";
 import { ENGINE_VERSION } from "./version";
 
 /** Options for {@link analyzeCapture} and {@link analyzeSamples}. */
@@ -141,10 +139,11 @@ function analyzeRecord(
   // A milli-bin is close enough to take the harmonics out; the second fit does the fine work.
   // The statistics pass above summed y and y² just as the fit would: it need not do so again.
   const spanSums = { sum, sumOfSquares };
+  const extremes = { minV: min, maxV: max };
   let first = fitSine4(y, sampleRateHz, coarseHz, { toleranceBins: 1e-3, spanSums });
   const t3 = now();
   const cleaned = new Float64Array(n);
-  let passes = passesFrom(y, sampleRateHz, first, maxOrder, compare, cleaned);
+  let passes = passesFrom(y, sampleRateHz, first, maxOrder, compare, cleaned, extremes);
   const t6 = now();
   // The whole record's spectrum is asked for only now, after the fits, so a caller computing it on
   // another thread has had all of them to do so.
@@ -157,7 +156,7 @@ function analyzeRecord(
     const again = fitSine4(y, sampleRateHz, fullPeakHz, { toleranceBins: 1e-3, spanSums });
     if (again.residualSumOfSquares < first.residualSumOfSquares) {
       first = again;
-      passes = passesFrom(y, sampleRateHz, first, maxOrder, compare, cleaned);
+      passes = passesFrom(y, sampleRateHz, first, maxOrder, compare, cleaned, extremes);
     }
   }
   const t6c = now();
@@ -269,50 +268,6 @@ function analyzeRecord(
     };
   }
   return analysis;
-}
-
-/**
- * Everything that follows from the first fit and needs no spectrum: the harmonics taken out of the
- * record (written to `cleaned`), the second fit on what is left, the harmonic fit of both channels
- * at its frequency, and the figures and checks from those. A function so the rare restart of the
- * spectrum's safety net can run it again.
- */
-function passesFrom(
-  y: Float64Array,
-  sampleRateHz: number,
-  first: SineFit,
-  maxOrder: number,
-  compare: CaptureChannel | undefined,
-  cleaned: Float64Array,
-) {
-  const n = y.length;
-  const { cleanedSums } = fitHarmonics(y, first.omegaRadPerSample, maxOrder, { cleanedOut: cleaned });
-  // Second pass: harmonics leak into a single-sine fit and bias it; fitting the cleaned record removes that.
-  // The harmonic fit summed the cleaned record as it wrote it, over the whole of it: the fit need not again.
-  const fit = fitSine4(cleaned, sampleRateHz, first.frequencyHz, { spanSums: cleanedSums });
-  // The compared channel shares the pass: same frequency, same columns.
-  const [harmonicFit, compareFit] = fitHarmonicsOfChannels(compare ? [y, compare.samples] : [y], fit.omegaRadPerSample, maxOrder);
-
-  const fundamentalVpk = harmonicFit.amplitudesVpk[0];
-  const frequencyHz = fit.frequencyHz;
-  const dof = Math.max(1, n - harmonicFit.parameters - 1);
-  const noiseVariance = harmonicFit.noiseSumOfSquares / dof;
-  const { harmonics, thd } = reportHarmonics(harmonicFit, maxOrder, sampleRateHz, noiseVariance);
-  const whiteNoiseHz = (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, noiseVariance * fit.omegaVarianceFactor));
-  const uncertainty = frequencyUncertainty(cleaned, sampleRateHz, frequencyHz, whiteNoiseHz);
-  const signalRms = fundamentalVpk / Math.SQRT2;
-  const noiseVrms = Math.sqrt(harmonicFit.noiseSumOfSquares / n);
-  const nadRms = Math.sqrt(harmonicFit.noiseAndDistortionSumOfSquares / n);
-  const sinad = sinadDb(signalRms, nadRms);
-  const snr = sinadDb(signalRms, noiseVrms);
-  const tone = checkTone(fundamentalVpk, n, harmonicFit.noiseAndDistortionSumOfSquares / Math.max(1, n - 3));
-
-  const cycles = (frequencyHz * n) / sampleRateHz;
-  const samplesPerCycle = sampleRateHz / frequencyHz;
-  const clipping = checkClipping(y, samplesPerCycle);
-  const envelope = checkEnvelope(cleaned, sampleRateHz, frequencyHz, noiseVrms);
-  const drift = cycles >= 6 ? checkDrift(cleaned, sampleRateHz, frequencyHz) : undefined;
-  return { fit, harmonicFit, compareFit, harmonics, thd, uncertainty, noiseVrms, sinad, snr, tone, cycles, samplesPerCycle, clipping, envelope, drift };
 }
 
 /**

@@ -71,15 +71,20 @@ export interface ClippingCheck {
  * the extreme). Clipping is reported when the share is three times that and at least 0.5 %.
  *
  * @param y - the record in volts
+ * @param samplesPerCycle - the fitted period in samples
+ * @param extremes - the record's smallest and largest sample, when a caller has found them already
  * @returns the shares and the verdict for each extreme
  */
-export function checkClipping(y: Float64Array, samplesPerCycle = Infinity): ClippingCheck {
+export function checkClipping(y: Float64Array, samplesPerCycle = Infinity, extremes?: { minV: number; maxV: number }): ClippingCheck {
   let min = Infinity;
   let max = -Infinity;
-  for (let i = 0; i < y.length; i++) {
-    const v = y[i];
-    if (v < min) min = v;
-    if (v > max) max = v;
+  if (extremes) ({ minV: min, maxV: max } = extremes);
+  else {
+    for (let i = 0; i < y.length; i++) {
+      const v = y[i];
+      if (v < min) min = v;
+      if (v > max) max = v;
+    }
   }
   const span = max - min;
   const none = { topFraction: 0, bottomFraction: 0, topExpected: 0, bottomExpected: 0, clippedTop: false, clippedBottom: false };
