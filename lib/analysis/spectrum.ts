@@ -34,7 +34,8 @@ export interface SpectrumOptions {
   maxFftLength?: number;
 }
 
-// 2^22 points keep the FFT's buffers near 170 MB; a 10-million-sample record is averaged over 4 segments.
+// 2^22 points keep the FFT's buffers near 110 MB (window buffer, half-length transform, power, table);
+// a 10-million-sample record is averaged over 4 segments.
 const DEFAULT_MAX_FFT_LENGTH = 1 << 22;
 
 /**
@@ -199,9 +200,10 @@ export function windowedSpectrum(
 
 /**
  * Readies a thread for {@link windowedSpectrum} of a record of about `samples` samples, for a
- * worker with time on its hands before the record arrives: builds the FFT plan of that length
- * (a first call's largest set-up) and runs the code on short records until the optimising
- * compiler has it, so the real call does not start out interpreted. Changes no result.
+ * worker with time on its hands before the record arrives: builds the plan of the half-length FFT
+ * {@link addRealPower} runs for that length (a first call's largest set-up) and runs the code on
+ * short records until the optimising compiler has it, so the real call does not start out
+ * interpreted. Changes no result.
  *
  * @param samples - the expected record length (a wrong guess only wastes the plan)
  * @param options - as for the real call
