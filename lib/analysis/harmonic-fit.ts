@@ -236,9 +236,10 @@ export function fitHarmonicsOfChannels(
       b1 * b1 * gs[0];
     // The subtraction loses digits when the residual is tiny against the signal (SNR beyond
     // ~90 dB): then take the residual sample by sample.
-    if (!(noise > 1e-9 * sumOfSquares)) ({ noise, noiseAndDistortion } = residualSums(y, start, length, omega, dcV, cosV, sinV, orders));
+    const model = { start, length, omega, dcV, cosV, sinV, orders };
+    if (!(noise > 1e-9 * sumOfSquares)) ({ noise, noiseAndDistortion } = residualSums(y, model));
     const cleaned = channel === 0 ? options.cleanedOut : undefined;
-    const cleanedSums = cleaned && writeCleaned(y, start, length, omega, dcV, cosV, sinV, orders, cleaned);
+    const cleanedSums = cleaned && writeCleaned(y, model, cleaned);
     return {
       omegaRadPerSample: omega,
       dcV,

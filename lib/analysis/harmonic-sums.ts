@@ -89,7 +89,8 @@ function goertzelOne(y: Float64Array, from: number, count: number, m0: number, o
   for (let h = 0; h < orders.length; h++) {
     const w = orders[h] * omega;
     const r = recurrence(w);
-    fourChains(y, a, b, c, e, quarter, last, r.low, r.lambda, state);
+    fourChains(y, a, y, b, y, c, y, e, quarter, r.low, r.lambda, state);
+    chainTail(y, e + quarter, last - quarter, r.low, r.lambda, state, 6);
     const at = 2 + 2 * h;
     chainSums(state[0], state[1], r, w, m0, quarter, out, at);
     chainSums(state[2], state[3], r, w, m0 + quarter, quarter, out, at);
@@ -99,50 +100,63 @@ function goertzelOne(y: Float64Array, from: number, count: number, m0: number, o
 }
 
 /**
- * Four Goertzel chains over y[a..a+n), y[b..), y[c..) and y[e..e+last) (last ≥ n), in Reinsch's
- * form; writes each chain's (q, d) to state.
+ * Four Goertzel chains in Reinsch's form, run side by side for n samples from a zero state over
+ * p[pa..), q[qa..), r[ra..) and s[sa..) (the arrays may be the same one); writes each chain's
+ * (q, d) to state, in that order.
  */
-function fourChains(y: Float64Array, a: number, b: number, c: number, e: number, n: number, last: number, low: boolean, lambda: number, state: Float64Array): void {
-  let qa = 0, da = 0, qb = 0, db = 0, qc = 0, dc = 0, qe = 0, de = 0;
+function fourChains(
+  p: Float64Array, pa: number, q: Float64Array, qa: number, r: Float64Array, ra: number, s: Float64Array, sa: number,
+  n: number, low: boolean, lambda: number, state: Float64Array,
+): void {
+  let q0 = 0, d0 = 0, q1 = 0, d1 = 0, q2 = 0, d2 = 0, q3 = 0, d3 = 0;
   if (low) {
     for (let j = 0; j < n; j++) {
-      da += lambda * qa + y[a + j];
-      qa += da;
-      db += lambda * qb + y[b + j];
-      qb += db;
-      dc += lambda * qc + y[c + j];
-      qc += dc;
-      de += lambda * qe + y[e + j];
-      qe += de;
-    }
-    for (let j = n; j < last; j++) {
-      de += lambda * qe + y[e + j];
-      qe += de;
+      d0 += lambda * q0 + p[pa + j];
+      q0 += d0;
+      d1 += lambda * q1 + q[qa + j];
+      q1 += d1;
+      d2 += lambda * q2 + r[ra + j];
+      q2 += d2;
+      d3 += lambda * q3 + s[sa + j];
+      q3 += d3;
     }
   } else {
     for (let j = 0; j < n; j++) {
-      da = lambda * qa - da + y[a + j];
-      qa = da - qa;
-      db = lambda * qb - db + y[b + j];
-      qb = db - qb;
-      dc = lambda * qc - dc + y[c + j];
-      qc = dc - qc;
-      de = lambda * qe - de + y[e + j];
-      qe = de - qe;
-    }
-    for (let j = n; j < last; j++) {
-      de = lambda * qe - de + y[e + j];
-      qe = de - qe;
+      d0 = lambda * q0 - d0 + p[pa + j];
+      q0 = d0 - q0;
+      d1 = lambda * q1 - d1 + q[qa + j];
+      q1 = d1 - q1;
+      d2 = lambda * q2 - d2 + r[ra + j];
+      q2 = d2 - q2;
+      d3 = lambda * q3 - d3 + s[sa + j];
+      q3 = d3 - q3;
     }
   }
-  state[0] = qa;
-  state[1] = da;
-  state[2] = qb;
-  state[3] = db;
-  state[4] = qc;
-  state[5] = dc;
-  state[6] = qe;
-  state[7] = de;
+  state[0] = q0;
+  state[1] = d0;
+  state[2] = q1;
+  state[3] = d1;
+  state[4] = q2;
+  state[5] = d2;
+  state[6] = q3;
+  state[7] = d3;
+}
+
+/** Runs the chain whose (q, d) is at state[at] on over x[from..from+count): a block's tail samples. */
+function chainTail(x: Float64Array, from: number, count: number, low: boolean, lambda: number, state: Float64Array, at: number): void {
+  let q = state[at];
+  let d = state[at + 1];
+  for (let j = 0; j < count; j++) {
+    if (low) {
+      d += lambda * q + x[from + j];
+      q += d;
+    } else {
+      d = lambda * q - d + x[from + j];
+      q = d - q;
+    }
+  }
+  state[at] = q;
+  state[at + 1] = d;
 }
 
 /** One block of two channels: two chains per channel and order, over halves of the block. */
@@ -165,61 +179,15 @@ function goertzelTwo(
   for (let h = 0; h < orders.length; h++) {
     const w = orders[h] * omega;
     const r = recurrence(w);
-    twoChannelChains(y, z, a, b, half, last, r.low, r.lambda, state);
+    fourChains(y, a, y, b, z, a, z, b, half, r.low, r.lambda, state);
+    chainTail(y, b + half, last - half, r.low, r.lambda, state, 2);
+    chainTail(z, b + half, last - half, r.low, r.lambda, state, 6);
     const at = 2 + 2 * h;
     chainSums(state[0], state[1], r, w, m0, half, outY, at);
     chainSums(state[2], state[3], r, w, m0 + half, last, outY, at);
     chainSums(state[4], state[5], r, w, m0, half, outZ, at);
     chainSums(state[6], state[7], r, w, m0 + half, last, outZ, at);
   }
-}
-
-/** Goertzel chains over y and z, each over [a, a+n) and [b, b+last) (last ≥ n), as in {@link fourChains}. */
-function twoChannelChains(y: Float64Array, z: Float64Array, a: number, b: number, n: number, last: number, low: boolean, lambda: number, state: Float64Array): void {
-  let qya = 0, dya = 0, qyb = 0, dyb = 0, qza = 0, dza = 0, qzb = 0, dzb = 0;
-  if (low) {
-    for (let j = 0; j < n; j++) {
-      dya += lambda * qya + y[a + j];
-      qya += dya;
-      dyb += lambda * qyb + y[b + j];
-      qyb += dyb;
-      dza += lambda * qza + z[a + j];
-      qza += dza;
-      dzb += lambda * qzb + z[b + j];
-      qzb += dzb;
-    }
-    for (let j = n; j < last; j++) {
-      dyb += lambda * qyb + y[b + j];
-      qyb += dyb;
-      dzb += lambda * qzb + z[b + j];
-      qzb += dzb;
-    }
-  } else {
-    for (let j = 0; j < n; j++) {
-      dya = lambda * qya - dya + y[a + j];
-      qya = dya - qya;
-      dyb = lambda * qyb - dyb + y[b + j];
-      qyb = dyb - qyb;
-      dza = lambda * qza - dza + z[a + j];
-      qza = dza - qza;
-      dzb = lambda * qzb - dzb + z[b + j];
-      qzb = dzb - qzb;
-    }
-    for (let j = n; j < last; j++) {
-      dyb = lambda * qyb - dyb + y[b + j];
-      qyb = dyb - qyb;
-      dzb = lambda * qzb - dzb + z[b + j];
-      qzb = dzb - qzb;
-    }
-  }
-  state[0] = qya;
-  state[1] = dya;
-  state[2] = qyb;
-  state[3] = dyb;
-  state[4] = qza;
-  state[5] = dza;
-  state[6] = qzb;
-  state[7] = dzb;
 }
 
 /** What {@link residualSums} returns. */
@@ -230,21 +198,23 @@ export interface ResidualSums {
   noiseAndDistortion: number;
 }
 
-/**
- * Σ(y − model)² and Σ(y − DC − fundamental)², sample by sample, for the fit DC + Σ_h (cos_h·cos hωm
- * + sin_h·sin hωm).
- * @param orders - the fitted orders, orders[0] = 1 (the fundamental)
- */
-export function residualSums(
-  y: Float64Array,
-  start: number,
-  length: number,
-  omega: number,
-  dcV: number,
-  cosV: Float64Array,
-  sinV: Float64Array,
-  orders: readonly number[],
-): ResidualSums {
+/** A fitted model over a span: DC + Σ_h (cos_h·cos hωm + sin_h·sin hωm), m centred on the span. */
+export interface HarmonicModel {
+  start: number;
+  length: number;
+  /** The fundamental, radians per sample. */
+  omega: number;
+  dcV: number;
+  /** cos and sin coefficients, index i ↔ orders[i]. */
+  cosV: Float64Array;
+  sinV: Float64Array;
+  /** The fitted orders, orders[0] = 1 (the fundamental). */
+  orders: readonly number[];
+}
+
+/** Σ(y − model)² and Σ(y − DC − fundamental)², sample by sample. */
+export function residualSums(y: Float64Array, model: HarmonicModel): ResidualSums {
+  const { start, length, omega, dcV, cosV, sinV, orders } = model;
   const centre = (length - 1) / 2;
   const distortion = new Float64Array(BLOCK_SAMPLES);
   const fundamental = new Float64Array(BLOCK_SAMPLES);
@@ -270,20 +240,10 @@ export function residualSums(
 
 /**
  * Writes the cleaned record y − DC − Σ_{h≥2} harmonics (the distortion taken out, the fundamental
- * left in) over the span, and returns its Σ and Σ² summed in index order as written.
- * @param orders - the fitted orders, orders[0] = 1 (the fundamental, which stays)
+ * left in) over the model's span, and returns its Σ and Σ² summed in index order as written.
  */
-export function writeCleaned(
-  y: Float64Array,
-  start: number,
-  length: number,
-  omega: number,
-  dcV: number,
-  cosV: Float64Array,
-  sinV: Float64Array,
-  orders: readonly number[],
-  cleaned: Float64Array,
-): { sum: number; sumOfSquares: number } {
+export function writeCleaned(y: Float64Array, model: HarmonicModel, cleaned: Float64Array): { sum: number; sumOfSquares: number } {
+  const { start, length, omega, dcV, cosV, sinV, orders } = model;
   const centre = (length - 1) / 2;
   const distortion = new Float64Array(BLOCK_SAMPLES);
   let sum = 0;

@@ -83,8 +83,9 @@ describe("residualSums and writeCleaned", () => {
       return sum;
     };
     const cleaned = new Float64Array(length);
-    const sums = residualSums(y, 0, length, omega, dcV, cosV, sinV, orders);
-    const cleanedSums = writeCleaned(y, 0, length, omega, dcV, cosV, sinV, orders, cleaned);
+    const fitted = { start: 0, length, omega, dcV, cosV, sinV, orders };
+    const sums = residualSums(y, fitted);
+    const cleanedSums = writeCleaned(y, fitted, cleaned);
     let worst = 0;
     for (let k = 0; k < length; k++) worst = Math.max(worst, Math.abs(cleaned[k] - (y[k] - dcV - model(k, 1))));
     // Volts, against a model of about 1 V: round-off of a few hundred recurrence steps.
