@@ -16,17 +16,15 @@ export interface Recurrence {
   /** Whether cos w ≥ 0 (the difference form). */
   low: boolean;
   lambda: number;
-  cosW: number;
   sinW: number;
   /** sin(w/2) or cos(w/2), for the exact first difference or sum. */
   halfW: number;
 }
 
 export function recurrence(w: number): Recurrence {
-  const cosW = Math.cos(w);
-  const low = cosW >= 0;
+  const low = Math.cos(w) >= 0;
   const halfW = low ? Math.sin(w / 2) : Math.cos(w / 2);
-  return { low, lambda: low ? -4 * halfW * halfW : 4 * halfW * halfW, cosW, sinW: Math.sin(w), halfW };
+  return { low, lambda: low ? -4 * halfW * halfW : 4 * halfW * halfW, sinW: Math.sin(w), halfW };
 }
 
 /**

@@ -14,6 +14,7 @@
  */
 
 import { chainSums, recurrence } from "./goertzel";
+import { plainSums } from "./sine-fit";
 
 /** Projections of one channel on its fitted columns. */
 export interface Projections {
@@ -27,19 +28,6 @@ export interface Projections {
 // Blocks that stay in the L1 cache: four chains of 512 samples for one channel, two of 1024 for
 // each channel of a pair.
 const BLOCK_SAMPLES = 2048;
-
-/** Σ and Σ² of y over one stretch. */
-function plainSums(y: Float64Array, from: number, count: number, out: Float64Array): void {
-  let sum = 0;
-  let squares = 0;
-  for (let j = 0; j < count; j++) {
-    const v = y[from + j];
-    sum += v;
-    squares += v * v;
-  }
-  out[0] += sum;
-  out[1] += squares;
-}
 
 /**
  * Projections of several channels sampled together at ω on the given orders (pairs share a pass,
@@ -56,13 +44,19 @@ export function projectChannels(
   const centre = (length - 1) / 2;
   // Per channel: [Σy, Σy², (Σcos, Σsin) per order].
   const sums = ys.map(() => new Float64Array(2 + 2 * orderCount));
+  // The four chains' (q, d) after each block, one buffer for the whole pass.
+  const state = new Float64Array(8);
   for (let first = 0; first < length; first += BLOCK_SAMPLES) {
     const count = Math.min(BLOCK_SAMPLES, length - first);
     const from = start + first;
-    for (let k = 0; k < ys.length; k++) plainSums(ys[k], from, count, sums[k]);
+    for (let k = 0; k < ys.length; k++) {
+      const { sumY, sumY2 } = plainSums(ys[k], from, count);
+      sums[k][0] += sumY;
+      sums[k][1] += sumY2;
+    }
     for (let k = 0; k < ys.length; k += 2) {
-      if (k + 1 < ys.length) goertzelTwo(ys[k], ys[k + 1], from, count, first - centre, omega, orders, sums[k], sums[k + 1]);
-      else goertzelOne(ys[k], from, count, first - centre, omega, orders, sums[k]);
+      if (k + 1 < ys.length) goertzelTwo(ys[k], ys[k + 1], from, count, first - centre, omega, orders, sums[k], sums[k + 1], state);
+      else goertzelOne(ys[k], from, count, first - centre, omega, orders, sums[k], state);
     }
   }
   return sums.map((s) => {
@@ -78,14 +72,22 @@ export function projectChannels(
 }
 
 /** One block of one channel: four chains per order, over quarters of the block. */
-function goertzelOne(y: Float64Array, from: number, count: number, m0: number, omega: number, orders: readonly number[], out: Float64Array): void {
+function goertzelOne(
+  y: Float64Array,
+  from: number,
+  count: number,
+  m0: number,
+  omega: number,
+  orders: readonly number[],
+  out: Float64Array,
+  state: Float64Array,
+): void {
   const quarter = count >> 2;
   const last = count - 3 * quarter;
   const a = from;
   const b = a + quarter;
   const c = b + quarter;
   const e = c + quarter;
-  const state = new Float64Array(8);
   for (let h = 0; h < orders.length; h++) {
     const w = orders[h] * omega;
     const r = recurrence(w);
@@ -170,12 +172,12 @@ function goertzelTwo(
   orders: readonly number[],
   outY: Float64Array,
   outZ: Float64Array,
+  state: Float64Array,
 ): void {
   const half = count >> 1;
   const last = count - half;
   const a = from;
   const b = a + half;
-  const state = new Float64Array(8);
   for (let h = 0; h < orders.length; h++) {
     const w = orders[h] * omega;
     const r = recurrence(w);
@@ -218,6 +220,7 @@ export function residualSums(y: Float64Array, model: HarmonicModel): ResidualSum
   const centre = (length - 1) / 2;
   const distortion = new Float64Array(BLOCK_SAMPLES);
   const fundamental = new Float64Array(BLOCK_SAMPLES);
+  const starts = new Float64Array(8);
   let noise = 0;
   let noiseAndDistortion = 0;
   for (let first = 0; first < length; first += BLOCK_SAMPLES) {
@@ -225,7 +228,7 @@ export function residualSums(y: Float64Array, model: HarmonicModel): ResidualSum
     fundamental.fill(0, 0, count);
     distortion.fill(0, 0, count);
     for (let h = 0; h < orders.length; h++) {
-      addSinusoid(h === 0 ? fundamental : distortion, count, orders[h] * omega, first - centre, cosV[h], sinV[h]);
+      addSinusoid(h === 0 ? fundamental : distortion, count, orders[h] * omega, first - centre, cosV[h], sinV[h], starts);
     }
     const offset = start + first;
     for (let j = 0; j < count; j++) {
@@ -246,12 +249,13 @@ export function writeCleaned(y: Float64Array, model: HarmonicModel, cleaned: Flo
   const { start, length, omega, dcV, cosV, sinV, orders } = model;
   const centre = (length - 1) / 2;
   const distortion = new Float64Array(BLOCK_SAMPLES);
+  const starts = new Float64Array(8);
   let sum = 0;
   let sumOfSquares = 0;
   for (let first = 0; first < length; first += BLOCK_SAMPLES) {
     const count = Math.min(BLOCK_SAMPLES, length - first);
     distortion.fill(0, 0, count);
-    for (let h = 1; h < orders.length; h++) addSinusoid(distortion, count, orders[h] * omega, first - centre, cosV[h], sinV[h]);
+    for (let h = 1; h < orders.length; h++) addSinusoid(distortion, count, orders[h] * omega, first - centre, cosV[h], sinV[h], starts);
     const offset = start + first;
     for (let j = 0; j < count; j++) {
       const v = y[offset + j] - dcV - distortion[j];
@@ -266,15 +270,14 @@ export function writeCleaned(y: Float64Array, model: HarmonicModel, cleaned: Flo
 /**
  * Adds a·cos(w·m) + b·sin(w·m) to target[0..count), m = m0 + j: four generator chains over
  * quarters of the stretch in Reinsch's form, each started from its exact first value and first
- * difference (or sum).
+ * difference (or sum), which go through `starts` (8 numbers, the caller's, reused block to block).
  */
-function addSinusoid(target: Float64Array, count: number, w: number, m0: number, a: number, b: number): void {
+function addSinusoid(target: Float64Array, count: number, w: number, m0: number, a: number, b: number, starts: Float64Array): void {
   const quarter = count >> 2;
   const r = recurrence(w);
   const lambda = r.lambda;
   const cosHalf = Math.cos(w / 2);
   const sinHalf = Math.sin(w / 2);
-  const starts = new Float64Array(8);
   for (let chain = 0; chain < 4; chain++) {
     const theta = w * (m0 + chain * quarter);
     const c = Math.cos(theta);

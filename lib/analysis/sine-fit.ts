@@ -195,10 +195,11 @@ function kernelSums(x: number, length: number): { d: number; s: number; c: numbe
 }
 
 /**
- * Σy and Σy² over the span. A function of its own so the accumulators are locals: summed inside
- * makeNormalSums they would be variables its closure captures, and every iteration would box a double.
+ * Σy and Σy² over the span, in index order (the harmonic fit's projections sum their blocks with it
+ * too). A function of its own so the accumulators are locals: summed inside makeNormalSums they
+ * would be variables its closure captures, and every iteration would box a double.
  */
-function plainSums(y: Float64Array, start: number, length: number): { sumY: number; sumY2: number } {
+export function plainSums(y: Float64Array, start: number, length: number): { sumY: number; sumY2: number } {
   let sumY = 0;
   let sumY2 = 0;
   for (let n = 0; n < length; n++) {

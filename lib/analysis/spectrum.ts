@@ -39,9 +39,12 @@ export interface SpectrumOptions {
 const DEFAULT_MAX_FFT_LENGTH = 1 << 22;
 
 /**
- * buffer[i] = (x[start + i] − mean)·w[i] for a cosine-sum window, computing w on the way: one
- * rotation gives cos θ, the Chebyshev recurrence cos kθ = 2cos θ·cos (k−1)θ − cos (k−2)θ the
- * rest, restarted from exact values every block so round-off cannot build up.
+ * buffer[i] = (x[start + i] − mean)·w[i] for a cosine-sum window of up to four terms (the engine's
+ * is Blackman–Harris), computing w on the way: one rotation gives cos θ, the Chebyshev recurrence
+ * cos kθ = 2cos θ·cos (k−1)θ − cos (k−2)θ gives cos 2θ and cos 3θ, and the rotation restarts from
+ * exact values every block so round-off cannot build up. The terms are written out, not looped
+ * over: a loop per sample cost four times the arithmetic it did.
+ * @throws RangeError for a window of more than four terms
  */
 function fillWindowed(
   x: Float64Array,
@@ -51,41 +54,21 @@ function fillWindowed(
   coefficients: readonly number[],
   buffer: Float64Array,
 ): void {
+  if (coefficients.length > 4) throw new RangeError(`windows of up to 4 cosine terms, got ${coefficients.length}`);
+  // w = a0 − a1·cos θ + a2·cos 2θ − a3·cos 3θ; absent terms are 0.
+  const [a0 = 0, a1 = 0, a2 = 0, a3 = 0] = coefficients.map((value, k) => (k % 2 === 1 ? -value : value));
   const step = (2 * Math.PI) / length;
   const rc = Math.cos(step);
   const rs = Math.sin(step);
-  const terms = coefficients.length;
-  const a = Float64Array.from(coefficients, (value, k) => (k % 2 === 1 ? -value : value));
   const block = 4096;
   for (let first = 0; first < length; first += block) {
     const end = Math.min(length, first + block);
     let c = Math.cos(step * first);
     let s = Math.sin(step * first);
-    if (terms === 4) {
-      // The engine's window, the loop below unrolled (the same operations in the same order, so
-      // the same bits): a loop over the terms per sample costs 4× the arithmetic it does.
-      const [a0, a1, a2, a3] = a;
-      for (let i = first; i < end; i++) {
-        const c2 = 2 * c * c - 1;
-        const c3 = 2 * c * c2 - c;
-        buffer[i] = (x[start + i] - mean) * (a0 + a1 * c + a2 * c2 + a3 * c3);
-        const nextCos = c * rc - s * rs;
-        s = s * rc + c * rs;
-        c = nextCos;
-      }
-      continue;
-    }
     for (let i = first; i < end; i++) {
-      let w = a[0];
-      let previous = 1;
-      let current = c;
-      for (let k = 1; k < terms; k++) {
-        w += a[k] * current;
-        const next = 2 * c * current - previous;
-        previous = current;
-        current = next;
-      }
-      buffer[i] = (x[start + i] - mean) * w;
+      const c2 = 2 * c * c - 1;
+      const c3 = 2 * c * c2 - c;
+      buffer[i] = (x[start + i] - mean) * (a0 + a1 * c + a2 * c2 + a3 * c3);
       const nextCos = c * rc - s * rs;
       s = s * rc + c * rs;
       c = nextCos;
