@@ -1,10 +1,12 @@
 export {
   checkStorage,
+  closeStorage,
   deleteObject,
   ensureBucket,
   getObjectBuffer,
   getObjectStream,
   headObject,
+  listObjectKeys,
   presignGet,
   presignPut,
   putObject,

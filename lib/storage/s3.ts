@@ -11,6 +11,7 @@ import {
 import { Upload } from "@aws-sdk/lib-storage";
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
 import { env, type Env } from "../env";
+import { bucketKeys } from "./bucket-keys";
 import { StorageError, toStorageError } from "./errors";
 
 /** Largest expiry S3 accepts for a presigned URL (7 days). */
@@ -74,6 +75,21 @@ function checkExpiry(expiresInSeconds: number): void {
 
 function isNotFound(err: unknown): boolean {
   return err instanceof StorageError && err.kind === "not-found";
+}
+
+/**
+ * Every key in the configured bucket (S3_BUCKET), all pages: for the checks that a refused request
+ * stored nothing (the fuzz campaign, the hostile tests).
+ * @throws StorageError when storage is unreachable or the bucket is missing
+ */
+export async function listObjectKeys(): Promise<string[]> {
+  return run("list the bucket", ({ client, bucket }) => bucketKeys(client, bucket));
+}
+
+/** Closes the storage client (made again on the next call), so a script's or test file's process can end. */
+export function closeStorage(): void {
+  current?.storage.client.destroy();
+  current = undefined;
 }
 
 /**

@@ -14,7 +14,7 @@ import { createUser } from "../../db/queries/users";
 import { createApiToken } from "../../lib/auth/api-tokens";
 import { hashPassword } from "../../lib/auth/password";
 import { env } from "../../lib/env";
-import { appBucketKeys, closeAppBucketClient } from "../lib/bucket-keys";
+import { closeStorage, listObjectKeys } from "../../lib/storage";
 import { synthCaptureCsv } from "../lib/synth-capture";
 import { INPUT_CLASSES, inputAt, type CallerRef, type FixtureIds, type FuzzInput, type InputClass, type Role } from "./inputs";
 import { Random } from "./random";
@@ -187,7 +187,7 @@ export async function createFixture(baseUrl: string, label = "fuzz"): Promise<Fi
 
 /** Every object in the bucket, counted through the S3 API (a listing, page by page). */
 export async function listedObjectCount(): Promise<number> {
-  return (await appBucketKeys()).length;
+  return (await listObjectKeys()).length;
 }
 
 // s3rver keeps each object as "<key>._S3rver_object" (beside its metadata) under <directory>/<bucket>.
@@ -239,7 +239,7 @@ function differences(before: Snapshot, after: Snapshot): string {
 }
 
 export function closeCampaignClients(): void {
-  closeAppBucketClient();
+  closeStorage();
   agent.destroy();
 }
 

@@ -4,7 +4,7 @@ import path from "node:path";
 import { PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startFakeS3, type FakeS3 } from "../../fake-s3/server";
-import { bucketKeys } from "../../scripts/lib/bucket-keys";
+import { bucketKeys } from "@/lib/storage/bucket-keys";
 
 // The storage checks of the fuzz campaign and the hostile tests list the whole bucket. The fake S3 could not page
 // a ListObjectsV2 listing on Node 20 (its continuation token needs the DES cipher OpenSSL 3 dropped): the full

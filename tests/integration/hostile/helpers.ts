@@ -2,11 +2,11 @@
 // "clear 4xx" contract every refusal must meet, raw HTTP for requests supertest would tidy up, and the
 // hostile strings the fuzzers mix in.
 import net from "node:net";
-import { appBucketKeys, closeAppBucketClient } from "../../../scripts/lib/bucket-keys";
 import type { Response } from "supertest";
 import request from "supertest";
 import { expect } from "vitest";
 import { db } from "@/db/index";
+import { closeStorage, listObjectKeys } from "@/lib/storage";
 import { appUrl } from "../../helpers/stack";
 
 /** The one seed of every property in these files, so a failure replays exactly. */
@@ -17,7 +17,7 @@ const STORED_TABLES = ["projects", "designs", "design_revisions", "builds", "twe
 export type StoredCounts = Record<(typeof STORED_TABLES)[number] | "objects", number>;
 
 /** Every object key in the test bucket (S3_BUCKET), all pages. */
-export const bucketKeys = appBucketKeys;
+export const bucketKeys = listObjectKeys;
 
 /** Row counts of the logbook tables and the number of objects in the bucket. */
 export async function storedCounts(): Promise<StoredCounts> {
@@ -27,7 +27,7 @@ export async function storedCounts(): Promise<StoredCounts> {
   return counts;
 }
 
-export const closeBucketClient = closeAppBucketClient;
+export const closeBucketClient = closeStorage;
 
 export interface Answer {
   status: number;
