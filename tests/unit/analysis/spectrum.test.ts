@@ -30,6 +30,26 @@ describe("windowedSpectrum", () => {
     expect(spectrum.segmentLength).toBe(2048);
     expect(spectrum.segments).toBe(9);
   });
+
+  // The median is found by selection in a scratch copy (the window buffer): it must equal what a sort
+  // gives and leave the bins themselves in order.
+  it.each([
+    ["one segment, padded", 3000, undefined],
+    ["one segment, a power of two", 4096, undefined],
+    ["averaged segments", 10_000, 2048],
+  ])("carries the median bin, as a sort would place it, without reordering the bins (%s)", (_, n, maxFftLength) => {
+    // A tone in seeded noise, so the bins are all different.
+    let state = 12345;
+    const noise = () => ((state = (state * 1103515245 + 12345) % 2147483648) / 2147483648 - 0.5) * 1e-3;
+    const y = tone(n, 123.4).map((v) => v + noise());
+    const spectrum = windowedSpectrum(y, n, maxFftLength === undefined ? {} : { maxFftLength });
+    const bins = spectrum.amplitudeVpk;
+    const sorted = Float64Array.from(bins).sort();
+    expect(spectrum.medianAmplitudeVpk).toBe(sorted[bins.length >> 1]);
+    // The tone's bin is still where the tone is, not moved by the selection.
+    const peak = bins.indexOf(Math.max(...bins.subarray(10)));
+    expect(Math.abs(peak * spectrum.binHz - 123.4)).toBeLessThan(2 * spectrum.binHz);
+  });
 });
 
 describe("coarsePeakHz", () => {
