@@ -8,10 +8,10 @@ import { type PlotData, peakToDbv, spectrumPlot, waveformEnvelope } from "./plot
 import { passesFrom } from "./record-passes";
 import { fitSine4 } from "./sine-fit";
 import { coarsePeakHz, type Spectrum, windowedSpectrum } from "./spectrum";
-import { findSpurs, largestOtherBin } from "./spurs";
+import { findSpurs, type KnownComponent, knownComponents, largestOtherBin } from "./spurs";
 import { gainPhaseFromFits } from "./two-channel";
 import { measureStability } from "./stability";
-import { buildWarnings } from "./warnings";
+import { buildWarnings, SECOND_MODE_WITHIN_DB } from "./warnings";
 import { ENGINE_VERSION } from "./version";
 
 /** Options for {@link analyzeCapture} and {@link analyzeSamples}. */
@@ -165,11 +165,23 @@ function analyzeRecord(
   const fundamentalVpk = harmonicFit.amplitudesVpk[0];
   const frequencyHz = fit.frequencyHz;
 
-  const spurs = findSpurs(spectrum, frequencyHz, fundamentalVpk, harmonics.map((h) => h.seenAtHz), maxOrder);
-  const largestSpur = largestComponent(harmonics, spurs, spectrum, frequencyHz, fundamentalVpk);
+  const known = knownComponents(frequencyHz, fundamentalVpk, sampleRateHz, harmonics);
+  const spurs = findSpurs(spectrum, frequencyHz, fundamentalVpk, known, maxOrder);
+  const largestSpur = largestComponent(harmonics, spurs, spectrum, known, fundamentalVpk);
 
   const steady = envelope ? envelope.change <= envelope.allowed : undefined;
-  const stability = measureStability({ samples: y, cleaned, sampleRateHz, startTimeS, tone: fit, frequencyHz, steady, dominantTone: tone.detected && tone.dominant });
+  const secondMode = spurs.find((s) => s.kind === "second-mode" && s.dBc !== null && s.dBc > -SECOND_MODE_WITHIN_DB);
+  const stability = measureStability({
+    samples: y,
+    cleaned,
+    sampleRateHz,
+    startTimeS,
+    tone: fit,
+    frequencyHz,
+    steady,
+    dominantTone: tone.detected && tone.dominant,
+    secondMode: secondMode ? { frequencyHz: secondMode.frequencyHz, dBc: secondMode.dBc as number } : undefined,
+  });
   const warnings = buildWarnings({ cycles, samplesPerCycle, clipping, envelope, drift, maxV: max, minV: min, tone, spurs, frequencyHz, transient: stability.envelope });
   const t7 = now();
 
@@ -289,7 +301,7 @@ export function samplingAdvice(sampleRateHz: number, maxOrder: number): string {
  * The component SFDR is measured against: the largest measured harmonic or listed spur, or when
  * neither is there the highest spectrum bin left (the noise's own peak).
  */
-function largestComponent(harmonics: readonly Harmonic[], spurs: readonly Spur[], spectrum: Spectrum, frequencyHz: number, fundamentalVpk: number): Spur | null {
+function largestComponent(harmonics: readonly Harmonic[], spurs: readonly Spur[], spectrum: Spectrum, known: readonly KnownComponent[], fundamentalVpk: number): Spur | null {
   let best: Spur | null = null;
   for (const h of harmonics) {
     if (h.status !== "measured" || h.amplitudeVpk === null) continue;
@@ -305,7 +317,7 @@ function largestComponent(harmonics: readonly Harmonic[], spurs: readonly Spur[]
   }
   for (const s of spurs) if (!best || s.amplitudeVpk > best.amplitudeVpk) best = s;
   if (best) return best;
-  const noisePeak = largestOtherBin(spectrum, [0, frequencyHz, ...harmonics.map((h) => h.seenAtHz)]);
+  const noisePeak = largestOtherBin(spectrum, known);
   if (!noisePeak) return null;
   return {
     ...noisePeak,

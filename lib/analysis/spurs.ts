@@ -35,31 +35,48 @@ interface Peak {
 }
 
 /**
- * Spectral peaks away from DC, the fundamental and the harmonics' (folded) positions: local maxima
- * over a window's main lobe, standing well above the median bin, with frequency and level from a
- * parabola through the log magnitudes (which also undoes most of the scallop loss).
+ * A component whose own main lobe is left out of the spur search: at `hz`, and with bins up to
+ * `uptoVpk` taken for its lobe (Infinity: every bin there). A bin above that is another tone beside
+ * it — a second mode a few bins from a harmonic the fit found under the noise, say — and is kept.
  */
-/** Bins within a main lobe (plus one bin) of each listed frequency, and that guard width in bins. */
-function excludedBins(spectrum: Spectrum, excludedHz: readonly number[]): { excluded: Uint8Array; guard: number } {
-  const padding = spectrum.fftLength / spectrum.segmentLength;
-  const guard = Math.ceil((spectrum.lobeHalfWidthBins + 1) * padding);
-  const excluded = new Uint8Array(spectrum.amplitudeVpk.length);
-  for (const hz of excludedHz) {
-    const centre = hz / spectrum.binHz;
-    const lo = Math.max(0, Math.floor(centre) - guard);
-    const hi = Math.min(excluded.length - 1, Math.ceil(centre) + guard);
-    for (let k = lo; k <= hi; k++) excluded[k] = 1;
-  }
-  return { excluded, guard };
+export interface KnownComponent {
+  hz: number;
+  uptoVpk: number;
 }
 
-function findPeaks(spectrum: Spectrum, excludedHz: readonly number[]): Peak[] {
+// A window reads a tone at most at its amplitude (centred on a bin); twice that leaves room for the
+// noise on top of the lobe.
+const OWN_LOBE_MARGIN = 2;
+
+/**
+ * Per bin, the level up to which it is taken for a known component's main lobe (plus one bin; 0
+ * away from them), and that guard width in bins.
+ */
+function excludedBins(spectrum: Spectrum, known: readonly KnownComponent[]): { upto: Float64Array; guard: number } {
+  const padding = spectrum.fftLength / spectrum.segmentLength;
+  const guard = Math.ceil((spectrum.lobeHalfWidthBins + 1) * padding);
+  const upto = new Float64Array(spectrum.amplitudeVpk.length);
+  for (const { hz, uptoVpk } of known) {
+    const centre = hz / spectrum.binHz;
+    const lo = Math.max(0, Math.floor(centre) - guard);
+    const hi = Math.min(upto.length - 1, Math.ceil(centre) + guard);
+    for (let k = lo; k <= hi; k++) upto[k] = Math.max(upto[k], uptoVpk);
+  }
+  return { upto, guard };
+}
+
+/**
+ * Spectral peaks away from DC, the fundamental and the harmonics' (folded) lobes: local maxima over
+ * a window's main lobe, standing well above the median bin, with frequency and level from a
+ * parabola through the log magnitudes (which also undoes most of the scallop loss).
+ */
+function findPeaks(spectrum: Spectrum, known: readonly KnownComponent[]): Peak[] {
   const a = spectrum.amplitudeVpk;
-  const { excluded, guard } = excludedBins(spectrum, excludedHz);
+  const { upto, guard } = excludedBins(spectrum, known);
   const threshold = PEAK_OVER_MEDIAN * spectrum.medianAmplitudeVpk;
   const peaks: Peak[] = [];
   for (let k = 1; k < a.length - 1; k++) {
-    if (excluded[k] || !(a[k] > threshold)) continue;
+    if (!(a[k] > upto[k]) || !(a[k] > threshold)) continue;
     let isMax = true;
     for (let j = Math.max(0, k - guard); j <= Math.min(a.length - 1, k + guard) && isMax; j++) {
       if (a[j] > a[k] || (a[j] === a[k] && j < k)) isMax = false;
@@ -75,19 +92,51 @@ function findPeaks(spectrum: Spectrum, excludedHz: readonly number[]): Peak[] {
   return peaks.sort((p, q) => q.amplitudeVpk - p.amplitudeVpk);
 }
 
-/** The largest peak left once the listed components are excluded: noise, when nothing else is there. */
-export function largestOtherBin(spectrum: Spectrum, excludedHz: readonly number[]): Peak | null {
+/** The largest bin left once the known components' lobes are excluded: noise, when nothing else is there. */
+export function largestOtherBin(spectrum: Spectrum, known: readonly KnownComponent[]): Peak | null {
   const a = spectrum.amplitudeVpk;
-  const { excluded } = excludedBins(spectrum, excludedHz);
+  const { upto } = excludedBins(spectrum, known);
   let best = -1;
-  for (let k = 0; k < a.length; k++) if (!excluded[k] && (best < 0 || a[k] > a[best])) best = k;
+  for (let k = 0; k < a.length; k++) if (a[k] > upto[k] && (best < 0 || a[k] > a[best])) best = k;
   return best >= 0 ? { frequencyHz: best * spectrum.binHz, amplitudeVpk: a[best] } : null;
+}
+
+/**
+ * The components the spur search leaves out: DC and the fundamental whole, and each harmonic's lobe
+ * up to twice its level — its fitted amplitude when measured, its detection limit when under the
+ * noise, the whole lobe when it could not be separated (its level is not known).
+ */
+export function knownComponents(
+  fundamentalHz: number,
+  fundamentalVpk: number,
+  sampleRateHz: number,
+  harmonics: readonly { seenAtHz: number; amplitudeVpk: number | null; detectionLimitDbc: number | null }[],
+): KnownComponent[] {
+  const harmonicLobes = harmonics.map((h) => {
+    const levelVpk = h.amplitudeVpk ?? (h.detectionLimitDbc === null ? Infinity : fundamentalVpk * 10 ** (h.detectionLimitDbc / 20));
+    return { hz: h.seenAtHz, uptoVpk: OWN_LOBE_MARGIN * levelVpk };
+  });
+  return [{ hz: 0, uptoVpk: Infinity }, { hz: fold(fundamentalHz, sampleRateHz), uptoVpk: Infinity }, ...harmonicLobes];
 }
 
 interface Candidate {
   hz: number;
   kind: SpurKind;
   label: string;
+}
+
+// Orders above those asked for are still harmonics (a square wave's 11th stands at −21 dBc): named so
+// up to this many times the orders asked for, and at least to this order.
+const HIGHER_HARMONIC_FACTOR = 4;
+const HIGHER_HARMONIC_MIN_ORDER = 40;
+
+function higherHarmonicCandidates(fundamentalHz: number, sampleRateHz: number, maxOrder: number): Candidate[] {
+  const out: Candidate[] = [];
+  const top = Math.max(HIGHER_HARMONIC_MIN_ORDER, HIGHER_HARMONIC_FACTOR * maxOrder);
+  for (let h = maxOrder + 1; h <= top; h++) {
+    out.push({ hz: fold(h * fundamentalHz, sampleRateHz), kind: "harmonic", label: `harmonic ${h} (beyond order ${maxOrder})` });
+  }
+  return out;
 }
 
 function subHarmonicCandidates(fundamentalHz: number, sampleRateHz: number, maxOrder: number): Candidate[] {
@@ -137,28 +186,23 @@ function nearest(candidates: readonly Candidate[], hz: number, toleranceHz: numb
 }
 
 /**
- * The largest non-harmonic components of a record, each named by what it most likely is: a
- * sub-harmonic (f/2, f/3 and their odd multiples: period doubling, squegging), mains and its
- * multiples, a second mode (the largest other tone within 30 dB of the fundamental), its
- * intermodulation with the fundamental (m·f1 ± n·f2, m ≤ 3, n ≤ 3), or other. A spur matches a
- * candidate within 1.5 of the record's resolution bins (fs / segment length).
+ * The largest components of a record besides the fundamental and the harmonics it measured, each
+ * named by what it most likely is: a harmonic above the orders asked for, a sub-harmonic (f/2, f/3
+ * and their odd multiples: period doubling, squegging), mains and its multiples, a second mode (the
+ * largest other tone within 30 dB of the fundamental), its intermodulation with the fundamental
+ * (m·f1 ± n·f2, m ≤ 3, n ≤ 3), or other. A spur matches a candidate within 1.5 of the record's
+ * resolution bins (fs / segment length).
  *
  * @param spectrum - the record's windowed spectrum
  * @param fundamentalHz - the fitted fundamental
- * @param fundamentalVpk - its fitted amplitude
- * @param harmonicSeenAtHz - where each harmonic is seen (folded), measured or not
+ * @param known - what the search leaves out, from {@link knownComponents}
+ * @param fundamentalVpk - the fundamental's fitted amplitude
  * @param maxOrder - the highest harmonic order asked for
  * @returns at most {@link MAX_SPURS} spurs, largest first
  */
-export function findSpurs(
-  spectrum: Spectrum,
-  fundamentalHz: number,
-  fundamentalVpk: number,
-  harmonicSeenAtHz: readonly number[],
-  maxOrder: number,
-): Spur[] {
+export function findSpurs(spectrum: Spectrum, fundamentalHz: number, fundamentalVpk: number, known: readonly KnownComponent[], maxOrder: number): Spur[] {
   const fs = spectrum.sampleRateHz;
-  const peaks = findPeaks(spectrum, [0, fold(fundamentalHz, fs), ...harmonicSeenAtHz]).slice(0, 4 * MAX_SPURS);
+  const peaks = findPeaks(spectrum, known).slice(0, 4 * MAX_SPURS);
   const resolutionHz = fs / spectrum.segmentLength;
   const toleranceHz = 1.5 * resolutionHz;
   const dbc = (vpk: number) => {
@@ -166,6 +210,7 @@ export function findSpurs(
     return Number.isFinite(value) ? value : null;
   };
   const fixedCandidates = [
+    ...higherHarmonicCandidates(fundamentalHz, fs, maxOrder),
     ...subHarmonicCandidates(fundamentalHz, fs, maxOrder),
     // Mains lines only mean something when the record resolves them apart (5 Hz between 50 Hz and 60 Hz multiples).
     ...(toleranceHz < 5 ? mainsCandidates(fs) : []),

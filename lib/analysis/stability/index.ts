@@ -3,6 +3,7 @@
  * period jitter from zero crossings, the Allan deviation within the record, and the envelope's
  * start-up or ring-down. Pure: typed arrays in, a JSON-ready object out.
  */
+import { formatEngineering } from "../../oscillator/units";
 import { ALLAN_CONFIDENCE, MIN_ALLAN_BLOCKS, overlappingAllan } from "./allan";
 import { demodulatePhase, type ReferenceTone } from "./demodulate";
 import { measureEnvelope } from "./envelope";
@@ -53,6 +54,11 @@ export interface StabilityInputs {
   steady: boolean | undefined;
   /** Whether a single tone dominates the record (the no-dominant-tone check). */
   dominantTone: boolean;
+  /**
+   * A second mode close enough in level to raise its warning: the fundamental's phase then swings
+   * with the two tones' beat, which is not jitter.
+   */
+  secondMode?: { frequencyHz: number; dBc: number };
   /** Highest offset for phase noise and jitter, Hz (default and cap: f0/4 and fs/2). */
   upperOffsetHz?: number;
 }
@@ -131,6 +137,10 @@ export function measureStability(inputs: StabilityInputs): StabilityResult {
   // A transient first: a decaying or growing record also fails the dominance test against a fixed sine.
   if (inputs.steady === false) reason = "the amplitude is not steady (see the envelope): a transient would read as phase noise; capture once it has settled";
   else if (!inputs.dominantTone) reason = "no dominant tone in the record, so there is no carrier to measure the phase of";
+  else if (inputs.secondMode) {
+    const { frequencyHz: modeHz, dBc } = inputs.secondMode;
+    reason = `a second mode at ${formatEngineering(modeHz, "Hz", 4)}, only ${(-dBc).toFixed(1)} dB below the fundamental, beats with it: the phase would measure that beat, not jitter`;
+  }
   else if (residual.phaseRad.length < MIN_STABILITY_PERIODS) reason = `only ${residual.phaseRad.length} periods in the record; phase noise, jitter and Allan deviation need at least ${MIN_STABILITY_PERIODS}`;
   if (reason !== null) return { ...notMeasured(reason), envelope, method: STABILITY_METHOD };
 

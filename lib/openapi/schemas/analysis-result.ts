@@ -103,7 +103,10 @@ export const analysisResultSchema = documented(
       noiseVrms: z.number(),
       harmonicOrdersRequested: z.int(),
       harmonics: z.array(harmonicSchema),
-      spurs: z.array(spurSchema).optional().describe("1.2: the largest non-harmonic components, named."),
+      spurs: z
+        .array(spurSchema)
+        .optional()
+        .describe("1.2: the largest components besides the fundamental and the measured harmonics, named; 1.3.2: harmonics above the orders asked for are named so (kind harmonic), not a second mode."),
       largestSpur: spurSchema.nullable().describe("The component SFDR is measured against."),
       tone: toneSchema.optional().describe("1.2: whether the fitted tone stands above the rest of the record."),
       cycles: z.number(),

@@ -138,6 +138,49 @@ describe("second modes, sub-harmonics and noise", () => {
     }
   });
 
+  it("a second mode five bins from the second harmonic's place, −6 dBc, is found, though the fit finds that harmonic under the noise", () => {
+    // The spur search used to leave out a harmonic's whole lobe: this tone was hidden, and SFDR read 16 dB.
+    const random = new SeededRandom(14);
+    const f = 0.0123456;
+    const y = new Float64Array(n);
+    for (let i = 0; i < n; i++) y[i] = Math.sin(2 * Math.PI * f * i) + 0.5 * Math.sin(2 * Math.PI * 2.02 * f * i) + 0.001 * random.normal();
+    const { result } = analyzeSamples(y, fs);
+    expect(result.harmonics.find((h) => h.order === 2)?.status).toBe("below-detection");
+    const mode = result.spurs.find((s) => s.kind === "second-mode");
+    expect(mode?.frequencyHz).toBeCloseTo(2.02 * f * fs, -1);
+    // 20·log10(0.5) = −6.02 dB.
+    expect(mode?.dBc).toBeCloseTo(-6.02, 0);
+    expect(result.sfdrDb).toBeCloseTo(6.02, 0);
+    expect(result.warnings.map((w) => w.code)).toContain("second-mode");
+  });
+
+  it("a second mode 3 dB down leaves jitter, phase noise, period jitter and Allan deviation not measured, naming it", () => {
+    const random = new SeededRandom(15);
+    const y = new Float64Array(n);
+    for (let i = 0; i < n; i++) y[i] = Math.sin(2 * Math.PI * 0.0123456 * i) + 0.7 * Math.sin(2 * Math.PI * 0.0169135 * i) + 0.001 * random.normal();
+    const stability = analyzeSamples(y, fs).result.stability;
+    if (!stability) throw new Error("no stability block");
+    for (const part of [stability.jitter, stability.phaseNoise, stability.periodJitter, stability.allan]) {
+      expect(part.reason).toMatch(/^a second mode at 16\.91 kHz, only 3\.1 dB below the fundamental/);
+    }
+    expect(stability.jitter.rmsJitterS).toBeNull();
+    expect(stability.allan.points).toEqual([]);
+  });
+
+  it("a square wave's harmonics above the orders asked for are harmonics, not a second mode", () => {
+    // Square wave: harmonic h (odd) at 1/h of the fundamental (Fourier series, closed form), so the 3rd is −9.54 dBc.
+    const random = new SeededRandom(16);
+    const f = 0.0123456;
+    const y = Float64Array.from({ length: n }, (_, i) => (Math.sin(2 * Math.PI * f * i) >= 0 ? 1 : -1) + 0.001 * random.normal());
+    const { result } = analyzeSamples(y, fs, { harmonics: 2 });
+    expect(result.spurs.map((s) => s.kind)).not.toContain("second-mode");
+    expect(result.warnings.map((w) => w.code)).not.toContain("second-mode");
+    expect(result.spurs[0]).toMatchObject({ kind: "harmonic", label: "harmonic 3 (beyond order 2)" });
+    expect(result.spurs[0].dBc).toBeCloseTo(-9.54, 0);
+    expect(result.spurs.map((s) => s.label)).toContain("harmonic 5 (beyond order 2)");
+    expect(result.sfdrDb).toBeCloseTo(9.54, 0);
+  });
+
   it("mains hum is named as such and raises no warning", () => {
     const random = new SeededRandom(13);
     const m = 200000;
