@@ -209,7 +209,8 @@ function table(result: AnalysisResult): string {
   for (const s of result.spurs) rows.push([`  spur`, `${formatHz(s.frequencyHz)}  ${formatDb(s.dBc, "dBc")}  ${s.label}`]);
   if (result.twoChannel) {
     const tc = result.twoChannel;
-    rows.push([`${tc.channel} vs ${tc.referenceChannel}`, `${tc.gainDb.toFixed(2)} dB, ${tc.phaseDeg.toFixed(2)}°`]);
+    const figures = tc.gainDb === null || tc.phaseDeg === null ? `not measured: ${tc.reason}` : `${tc.gainDb.toFixed(2)} dB, ${tc.phaseDeg.toFixed(2)}°`;
+    rows.push([`${tc.channel} vs ${tc.referenceChannel}`, figures]);
   }
   rows.push(...stabilityLines(result.stability));
   const width = Math.max(...rows.map(([label]) => label.length));

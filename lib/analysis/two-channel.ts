@@ -1,14 +1,20 @@
 import { fitHarmonics, type HarmonicFit } from "./harmonic-fit";
+import { DETECTION_SIGMAS } from "./harmonic-report";
 import { amplitudeRatioToDb } from "./metrics";
 
 /** The second channel's fundamental relative to the first's. */
 export interface GainPhase {
-  /** 20·log10(A_other / A_reference), dB. */
-  gainDb: number;
-  /** Phase of the other channel minus the reference's, degrees in (−180, 180]. */
-  phaseDeg: number;
+  /** 20·log10(A_other / A_reference), dB; null when the other channel shows no tone there (see `reason`). */
+  gainDb: number | null;
+  /** Phase of the other channel minus the reference's, degrees in (−180, 180]; null as gainDb. */
+  phaseDeg: number | null;
   referenceVpk: number;
+  /** The other channel's fitted amplitude at the fundamental, even when it is under its noise. */
   otherVpk: number;
+  /** The smallest amplitude the other channel's noise lets a fit tell apart there (4σ), volts. */
+  otherDetectionLimitVpk: number;
+  /** Why gain and phase are not measured; null when they are. */
+  reason: string | null;
 }
 
 /**
@@ -21,7 +27,8 @@ export interface GainPhase {
  * @param sampleRateHz - sample rate in Hz
  * @param frequencyHz - the fundamental in Hz (from the reference's analysis)
  * @param harmonics - highest order in the fit (default 10)
- * @returns gain in dB and phase in degrees of `other` relative to `reference`
+ * @returns gain in dB and phase in degrees of `other` relative to `reference`, or null with the
+ *   reason when `other` shows no tone at the fundamental
  * @throws RangeError when the channels differ in length or the reference has no fundamental
  */
 export function gainPhaseAtFundamental(
@@ -40,7 +47,10 @@ export function gainPhaseAtFundamental(
 
 /**
  * Gain and phase of one harmonic fit's fundamental against another's; both fits must share the
- * frequency and the span (their phases refer to the span's centre).
+ * frequency and the span (their phases refer to the span's centre). A phase is only a measurement
+ * when the other channel's fundamental stands above its own noise, by the harmonics' detection rule
+ * (4σ of a fitted amplitude, 3×10⁻⁴ false detections): a disconnected probe or a dead node reads
+ * as noise, whose phase is any angle.
  * @param a - fit of the reference channel
  * @param b - fit of the other channel
  * @throws RangeError when the reference has no fundamental
@@ -49,8 +59,17 @@ export function gainPhaseFromFits(a: HarmonicFit, b: HarmonicFit): GainPhase {
   const referenceVpk = a.amplitudesVpk[0];
   const otherVpk = b.amplitudesVpk[0];
   if (!(referenceVpk > 0)) throw new RangeError(`reference channel has no fundamental at ${a.omegaRadPerSample} rad/sample`);
+  const noiseVariance = b.noiseSumOfSquares / Math.max(1, b.length - b.parameters - 1);
+  const otherDetectionLimitVpk = DETECTION_SIGMAS * Math.sqrt(Math.max(0, noiseVariance * b.coefficientVarianceFactors[0]));
+  if (!(otherVpk > otherDetectionLimitVpk)) {
+    const reason =
+      otherVpk > 0
+        ? `the compared channel shows no tone at the fundamental: ${otherVpk.toExponential(2)} Vpk fitted, under its noise's detection limit of ${otherDetectionLimitVpk.toExponential(2)} Vpk (a loose probe or a dead node?)`
+        : "the compared channel is flat: it holds no signal at the fundamental";
+    return { gainDb: null, phaseDeg: null, referenceVpk, otherVpk, otherDetectionLimitVpk, reason };
+  }
   let phaseDeg = ((b.centrePhasesRad[0] - a.centrePhasesRad[0]) * 180) / Math.PI;
   phaseDeg = ((phaseDeg % 360) + 360) % 360;
   if (phaseDeg > 180) phaseDeg -= 360;
-  return { gainDb: amplitudeRatioToDb(otherVpk / referenceVpk), phaseDeg, referenceVpk, otherVpk };
+  return { gainDb: amplitudeRatioToDb(otherVpk / referenceVpk), phaseDeg, referenceVpk, otherVpk, otherDetectionLimitVpk, reason: null };
 }

@@ -65,10 +65,12 @@ const warningSchema = z.object({
 });
 
 const twoChannelSchema = z.object({
-  gainDb: z.number(),
-  phaseDeg: z.number().describe("Phase of the other channel minus the reference's, degrees in (−180, 180]."),
+  gainDb: z.number().nullable().describe("1.3.2: null, with `reason`, when the compared channel shows no tone at the fundamental above its noise."),
+  phaseDeg: z.number().nullable().describe("Phase of the other channel minus the reference's, degrees in (−180, 180]; null as gainDb."),
   referenceVpk: z.number(),
-  otherVpk: z.number(),
+  otherVpk: z.number().describe("The compared channel's fitted amplitude at the fundamental, also when under its noise."),
+  otherDetectionLimitVpk: z.number().optional().describe("1.3.2: the smallest amplitude the compared channel's noise lets a fit tell apart (4σ)."),
+  reason: z.string().nullable().optional().describe("1.3.2: why gain and phase are not measured; null when they are."),
   referenceChannel: z.string(),
   channel: z.string(),
 });

@@ -17,6 +17,30 @@ describe("gainPhaseAtFundamental", () => {
     expect(gp.referenceVpk).toBeCloseTo(1.5, 3);
   });
 
+  it("reads no gain or phase from a flat channel, or from one holding only noise, and says why", () => {
+    const { channels } = synthSamples({ ...LOOP, noiseVrms: 0.001 });
+    const flat = gainPhaseAtFundamental(channels[0], new Float64Array(LOOP.samples), LOOP.sampleRateHz, LOOP.frequencyHz);
+    expect(flat).toMatchObject({ gainDb: null, phaseDeg: null, otherVpk: 0 });
+    expect(flat.reason).toMatch(/flat/);
+    // White noise of σ = 10 mV: a fitted amplitude's σ is σ·√(2/N) ≈ 82 µV, so the 4σ limit is ≈ 0.33 mV.
+    let state = 7;
+    const uniform = () => (state = (state * 16807) % 2147483647) / 2147483647;
+    const noise = Float64Array.from({ length: LOOP.samples }, () => 0.01 * Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform()));
+    const loose = gainPhaseAtFundamental(channels[0], noise, LOOP.sampleRateHz, LOOP.frequencyHz);
+    expect(loose.gainDb).toBeNull();
+    expect(loose.phaseDeg).toBeNull();
+    expect(loose.otherDetectionLimitVpk).toBeCloseTo(4 * 0.01 * Math.sqrt(2 / LOOP.samples), 4);
+    expect(loose.reason).toMatch(/^the compared channel shows no tone at the fundamental: .* under its noise's detection limit/);
+  });
+
+  it("still measures a weak channel that stands clear of its noise (−60 dB)", () => {
+    const { channels } = synthSamples({ ...LOOP, noiseVrms: 0.001, second: { gainDb: -60, phaseDeg: 90, noiseVrms: 0.0001 } });
+    const gp = gainPhaseAtFundamental(channels[0], channels[1], LOOP.sampleRateHz, LOOP.frequencyHz);
+    expect(gp.reason).toBeNull();
+    expect(gp.gainDb).toBeCloseTo(-60, 1);
+    expect(gp.phaseDeg).toBeCloseTo(90, 0);
+  });
+
   it("rejects channels of different lengths", () => {
     expect(() => gainPhaseAtFundamental(new Float64Array(100), new Float64Array(99), 1, 0.1)).toThrow(/same length/);
   });
