@@ -195,8 +195,8 @@ function nearest(candidates: readonly Candidate[], hz: number, toleranceHz: numb
  *
  * @param spectrum - the record's windowed spectrum
  * @param fundamentalHz - the fitted fundamental
+ * @param fundamentalVpk - its fitted amplitude
  * @param known - what the search leaves out, from {@link knownComponents}
- * @param fundamentalVpk - the fundamental's fitted amplitude
  * @param maxOrder - the highest harmonic order asked for
  * @returns at most {@link MAX_SPURS} spurs, largest first
  */

@@ -140,8 +140,7 @@ export function measureStability(inputs: StabilityInputs): StabilityResult {
   else if (inputs.secondMode) {
     const { frequencyHz: modeHz, dBc } = inputs.secondMode;
     reason = `a second mode at ${formatEngineering(modeHz, "Hz", 4)}, only ${(-dBc).toFixed(1)} dB below the fundamental, beats with it: the phase would measure that beat, not jitter`;
-  }
-  else if (residual.phaseRad.length < MIN_STABILITY_PERIODS) reason = `only ${residual.phaseRad.length} periods in the record; phase noise, jitter and Allan deviation need at least ${MIN_STABILITY_PERIODS}`;
+  } else if (residual.phaseRad.length < MIN_STABILITY_PERIODS) reason = `only ${residual.phaseRad.length} periods in the record; phase noise, jitter and Allan deviation need at least ${MIN_STABILITY_PERIODS}`;
   if (reason !== null) return { ...notMeasured(reason), envelope, method: STABILITY_METHOD };
 
   const step = quantizationStepV(inputs.samples);
