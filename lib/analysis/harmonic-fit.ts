@@ -41,6 +41,14 @@ export interface HarmonicFit {
   cleanedSums?: { sum: number; sumOfSquares: number };
 }
 
+/**
+ * The fit's residual variance per sample, V²: its noise over the degrees of freedom the fit leaves
+ * (samples less the parameters and one), for detection limits and the white-noise σ.
+ */
+export function residualVariance(fit: HarmonicFit): number {
+  return fit.noiseSumOfSquares / Math.max(1, fit.length - fit.parameters - 1);
+}
+
 /** Options for {@link fitHarmonics}. */
 export interface HarmonicFitOptions {
   start?: number;

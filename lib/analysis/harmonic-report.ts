@@ -50,6 +50,11 @@ export interface ThdReport {
  */
 export const DETECTION_SIGMAS = 4;
 
+/** The smallest amplitude of the order at `index` of the fit that noise of this variance lets it tell apart, volts. */
+export function detectionLimitVpk(fit: HarmonicFit, index: number, noiseVariance: number): number {
+  return DETECTION_SIGMAS * Math.sqrt(Math.max(0, noiseVariance * fit.coefficientVarianceFactors[index]));
+}
+
 function describeFold(collidesWith: string, otherOrder: number | undefined): string {
   switch (collidesWith) {
     case "dc":
@@ -104,7 +109,7 @@ export function reportHarmonics(
       continue;
     }
     const amplitudeVpk = fit.amplitudesVpk[index];
-    const limitVpk = DETECTION_SIGMAS * Math.sqrt(Math.max(0, noiseVariance * fit.coefficientVarianceFactors[index]));
+    const limitVpk = detectionLimitVpk(fit, index, noiseVariance);
     const detected = amplitudeVpk > limitVpk;
     const limitDbc = fundamentalVpk > 0 && limitVpk > 0 ? dbc(limitVpk) : null;
     harmonics.push({

@@ -1,6 +1,6 @@
 import type { CaptureChannel } from "./csv-import";
 import { frequencyUncertainty } from "./frequency-uncertainty";
-import { fitHarmonics, fitHarmonicsOfChannels } from "./harmonic-fit";
+import { fitHarmonics, fitHarmonicsOfChannels, residualVariance } from "./harmonic-fit";
 import { reportHarmonics } from "./harmonic-report";
 import { sinadDb } from "./metrics";
 import { fitSine4, type SineFit } from "./sine-fit";
@@ -32,8 +32,7 @@ export function passesFrom(
 
   const fundamentalVpk = harmonicFit.amplitudesVpk[0];
   const frequencyHz = fit.frequencyHz;
-  const dof = Math.max(1, n - harmonicFit.parameters - 1);
-  const noiseVariance = harmonicFit.noiseSumOfSquares / dof;
+  const noiseVariance = residualVariance(harmonicFit);
   const { harmonics, thd } = reportHarmonics(harmonicFit, maxOrder, sampleRateHz, noiseVariance);
   const whiteNoiseHz = (sampleRateHz / (2 * Math.PI)) * Math.sqrt(Math.max(0, noiseVariance * fit.omegaVarianceFactor));
   const uncertainty = frequencyUncertainty(cleaned, sampleRateHz, frequencyHz, whiteNoiseHz);

@@ -1,5 +1,5 @@
-import { fitHarmonics, type HarmonicFit } from "./harmonic-fit";
-import { DETECTION_SIGMAS } from "./harmonic-report";
+import { fitHarmonics, type HarmonicFit, residualVariance } from "./harmonic-fit";
+import { detectionLimitVpk } from "./harmonic-report";
 import { amplitudeRatioToDb } from "./metrics";
 
 /** The second channel's fundamental relative to the first's. */
@@ -59,8 +59,7 @@ export function gainPhaseFromFits(a: HarmonicFit, b: HarmonicFit): GainPhase {
   const referenceVpk = a.amplitudesVpk[0];
   const otherVpk = b.amplitudesVpk[0];
   if (!(referenceVpk > 0)) throw new RangeError(`reference channel has no fundamental at ${a.omegaRadPerSample} rad/sample`);
-  const noiseVariance = b.noiseSumOfSquares / Math.max(1, b.length - b.parameters - 1);
-  const otherDetectionLimitVpk = DETECTION_SIGMAS * Math.sqrt(Math.max(0, noiseVariance * b.coefficientVarianceFactors[0]));
+  const otherDetectionLimitVpk = detectionLimitVpk(b, 0, residualVariance(b));
   if (!(otherVpk > otherDetectionLimitVpk)) {
     const reason =
       otherVpk > 0
