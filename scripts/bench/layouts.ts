@@ -13,6 +13,7 @@ import { closeDb, db } from "../../db/index";
 import { migrationSource } from "../../db/migration-source";
 import { listLayoutGroups } from "../../db/queries/layouts";
 import * as pgLib from "../lib/postgres.mjs";
+import { intOption } from "./int-option";
 
 const PORT = 54346;
 const DATABASE = "tankbook_bench_layouts";
@@ -23,14 +24,7 @@ const { values: args } = parseArgs({
   strict: true,
 });
 
-function positiveInt(name: string, raw: string, max: number): number {
-  const n = Number(raw);
-  if (!Number.isInteger(n) || n < 1 || n > max) {
-    console.error(`bench:layouts: --${name} must be an integer 1..${max}; got "${raw}"`);
-    process.exit(2);
-  }
-  return n;
-}
+const positiveInt = (name: string, raw: string, max: number) => intOption("bench:layouts", name, raw, 1, max);
 
 const builds = positiveInt("builds", args.builds, 20_000);
 const runs = positiveInt("runs", args.runs, 1_000_000);

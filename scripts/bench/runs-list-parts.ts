@@ -20,6 +20,7 @@ import { runListQuerySchema } from "../../lib/validations/run";
 import { commitLine } from "./web/report";
 import { seedBenchData } from "./web/seed";
 import { BenchServices } from "./web/services";
+import { intOption } from "./int-option";
 
 const { values: args } = parseArgs({
   options: {
@@ -30,14 +31,7 @@ const { values: args } = parseArgs({
   strict: true,
 });
 
-function positiveInt(name: string, raw: string, max: number): number {
-  const n = Number(raw);
-  if (!Number.isInteger(n) || n < 1 || n > max) {
-    console.error(`bench:runs-list: --${name} must be an integer 1..${max}; got "${raw}"`);
-    process.exit(2);
-  }
-  return n;
-}
+const positiveInt = (name: string, raw: string, max: number) => intOption("bench:runs-list", name, raw, 1, max);
 
 const requests = positiveInt("requests", args.requests, 200_000);
 const rounds = positiveInt("rounds", args.rounds, 20);

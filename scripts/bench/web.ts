@@ -18,6 +18,7 @@ import { commitLine, loadTable, machineLine, singleUploadLines, summarisePairs, 
 import { BENCH_PASSWORD, seedBenchData, type BenchData } from "./web/seed";
 import { BenchServices } from "./web/services";
 import { concurrentUploads, singleUploads } from "./web/uploads";
+import { intOption } from "./int-option";
 
 const { values: args } = parseArgs({
   options: {
@@ -35,14 +36,7 @@ const { values: args } = parseArgs({
   strict: true,
 });
 
-function positiveInt(name: string, raw: string, max: number): number {
-  const n = Number(raw);
-  if (!Number.isInteger(n) || n < 0 || n > max) {
-    console.error(`bench:web: --${name} must be an integer 0..${max}; got "${raw}"`);
-    process.exit(2);
-  }
-  return n;
-}
+const positiveInt = (name: string, raw: string, max: number) => intOption("bench:web", name, raw, 0, max);
 
 // Bounded on purpose: loopback only, at most a minute per measurement, at most 9 pairs and 64 uploads.
 const load: LoadOptions = {
