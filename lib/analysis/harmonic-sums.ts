@@ -214,23 +214,46 @@ export interface HarmonicModel {
   orders: readonly number[];
 }
 
-/** Σ(y − model)² and Σ(y − DC − fundamental)², sample by sample. */
-export function residualSums(y: Float64Array, model: HarmonicModel): ResidualSums {
-  const { start, length, omega, dcV, cosV, sinV, orders } = model;
+/** One block of a model rebuilt by {@link modelBlocks}; the buffers are reused from block to block. */
+interface ModelBlock {
+  /** Index in the record of the block's first sample. */
+  offset: number;
+  count: number;
+  /** Σ_{h≥2} harmonics over the block. */
+  distortion: Float64Array;
+  /** The fundamental over the block, when asked for (else left empty). */
+  fundamental: Float64Array;
+}
+
+/**
+ * The model over its span, block by block (blocks that stay in the cache while the caller reads the
+ * record beside them): the harmonics h ≥ 2 and, when asked for, the fundamental apart.
+ */
+function* modelBlocks(model: HarmonicModel, withFundamental: boolean): Generator<ModelBlock> {
+  const { start, length, omega, cosV, sinV, orders } = model;
   const centre = (length - 1) / 2;
-  const distortion = new Float64Array(BLOCK_SAMPLES);
-  const fundamental = new Float64Array(BLOCK_SAMPLES);
+  const block: ModelBlock = { offset: start, count: 0, distortion: new Float64Array(BLOCK_SAMPLES), fundamental: new Float64Array(withFundamental ? BLOCK_SAMPLES : 0) };
   const starts = new Float64Array(8);
-  let noise = 0;
-  let noiseAndDistortion = 0;
   for (let first = 0; first < length; first += BLOCK_SAMPLES) {
     const count = Math.min(BLOCK_SAMPLES, length - first);
-    fundamental.fill(0, 0, count);
-    distortion.fill(0, 0, count);
-    for (let h = 0; h < orders.length; h++) {
-      addSinusoid(h === 0 ? fundamental : distortion, count, orders[h] * omega, first - centre, cosV[h], sinV[h], starts);
+    if (withFundamental) {
+      block.fundamental.fill(0, 0, count);
+      addSinusoid(block.fundamental, count, orders[0] * omega, first - centre, cosV[0], sinV[0], starts);
     }
-    const offset = start + first;
+    block.distortion.fill(0, 0, count);
+    for (let h = 1; h < orders.length; h++) addSinusoid(block.distortion, count, orders[h] * omega, first - centre, cosV[h], sinV[h], starts);
+    block.offset = start + first;
+    block.count = count;
+    yield block;
+  }
+}
+
+/** Σ(y − model)² and Σ(y − DC − fundamental)², sample by sample. */
+export function residualSums(y: Float64Array, model: HarmonicModel): ResidualSums {
+  const dcV = model.dcV;
+  let noise = 0;
+  let noiseAndDistortion = 0;
+  for (const { offset, count, distortion, fundamental } of modelBlocks(model, true)) {
     for (let j = 0; j < count; j++) {
       const nad = y[offset + j] - dcV - fundamental[j];
       const r = nad - distortion[j];
@@ -246,17 +269,10 @@ export function residualSums(y: Float64Array, model: HarmonicModel): ResidualSum
  * left in) over the model's span, and returns its Σ and Σ² summed in index order as written.
  */
 export function writeCleaned(y: Float64Array, model: HarmonicModel, cleaned: Float64Array): { sum: number; sumOfSquares: number } {
-  const { start, length, omega, dcV, cosV, sinV, orders } = model;
-  const centre = (length - 1) / 2;
-  const distortion = new Float64Array(BLOCK_SAMPLES);
-  const starts = new Float64Array(8);
+  const dcV = model.dcV;
   let sum = 0;
   let sumOfSquares = 0;
-  for (let first = 0; first < length; first += BLOCK_SAMPLES) {
-    const count = Math.min(BLOCK_SAMPLES, length - first);
-    distortion.fill(0, 0, count);
-    for (let h = 1; h < orders.length; h++) addSinusoid(distortion, count, orders[h] * omega, first - centre, cosV[h], sinV[h], starts);
-    const offset = start + first;
+  for (const { offset, count, distortion } of modelBlocks(model, false)) {
     for (let j = 0; j < count; j++) {
       const v = y[offset + j] - dcV - distortion[j];
       cleaned[offset + j] = v;
